@@ -1,0 +1,300 @@
+/**
+ * The audit: per-cell stable step dt = C·h/λ, the global limit, the cells that set it and why.
+ *
+ * h = 2A/P (inscribed length). For first-order upwind finite volume with forward Euler on any
+ * simple polygon, dt ≤ h/|u| is a proven safe bound: with a constant u the outflow is
+ * Σ max(u·n, 0)|f| = ½ Σ |u·n||f| ≤ |u|·P/2, so dt·outflow/A ≤ dt·|u|·P/(2A) = dt·|u|/h ≤ 1.
+ */
+import { cellTypeName, QUAD, type Mesh } from '../mesh/model.js';
+import { UsageError } from '../mesh/errors.js';
+import { computeGeometry, FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE, type CellGeometry } from '../geometry/cells.js';
+import { cellSpeeds, STANDARD_GRAVITY, type WaveModel } from '../physics/speed.js';
+import { quantileSorted, smallestK, sortedFinite } from './stats.js';
+
+export const CAUSE_SMALL = 1;
+export const CAUSE_SHAPE = 2;
+export const CAUSE_FAST = 4;
+export const CAUSE_DEGENERATE = 8;
+
+/** A cell is "small" when h ≤ SMALL_FACTOR × the median h (common practice, our threshold). */
+export const SMALL_FACTOR = 0.5;
+/** A cell is in "fast flow" when λ ≥ FAST_FACTOR × the median λ (common practice, our threshold). */
+export const FAST_FACTOR = 2;
+/**
+ * Upper ends of the acceptable radius-ratio ranges, from Stimpson et al., The Verdict Library
+ * Reference Manual, SAND2007-2853P (2007): triangles [1, 3], quadrilaterals [1, 1.3].
+ */
+export const RADIUS_RATIO_OK_TRIANGLE = 3;
+export const RADIUS_RATIO_OK_QUAD = 1.3;
+
+export const CAUTION =
+  'A stable time step is necessary, not sufficient, for a correct simulation: accuracy, boundary ' +
+  'conditions, wetting and drying, source terms and the solver\'s own stability rules still apply. ' +
+  'Safety-relevant studies follow local codes and licensed engineering practice.';
+
+export interface AuditOptions {
+  model?: WaveModel;
+  velocity?: string | [string, string];
+  depth?: string;
+  gravity?: number;
+  soundSpeed?: string | number;
+  /** Courant number C in dt = C·h/λ (default 1: first-order upwind with forward Euler). */
+  courant?: number;
+  /** Where C came from, for the report (default: "default (first-order upwind, forward Euler)"). */
+  courantSource?: string;
+  /** The step the run intends to use, seconds. */
+  dt?: number;
+  /** Number of worst cells listed (default 10). */
+  top?: number;
+  /** File name for messages and the summary. */
+  file?: string;
+}
+
+export interface WorstCell {
+  cell: number;
+  dt: number | null;
+  type: 'triangle' | 'quad';
+  centroid: [number, number];
+  area: number;
+  inradius: number;
+  speed: number;
+  radius_ratio: number | null;
+  min_angle: number;
+  cause: string[];
+  why: string;
+}
+
+export interface AuditSummary {
+  steplens: string;
+  file: string | null;
+  units: { length: 'm'; time: 's'; speed: 'm/s' };
+  mesh: { cells: number; points: number; types: { triangle: number; quad: number }; format: string };
+  model: { name: WaveModel; velocity: string | null; depth: string | null; gravity: number | null; sound_speed: string | null };
+  limit: { dt: number | null; cell: number | null; courant: number; courant_source: string; centroid: [number, number] | null; cause: string[]; why: string | null };
+  worst: WorstCell[];
+  quantiles: { min: number | null; p01: number | null; p05: number | null; p25: number | null; median: number | null; p75: number | null; p95: number | null; max: number | null };
+  near_limit: { within_2x: number; within_10x: number };
+  histogram: { decade: number; from: number; to: number; cells: number }[];
+  counts: { degenerate: number; repeated_node: number; inverted: number; non_convex: number; dry: number; unlimited: number; small: number; poor_shape: number; fast: number };
+  medians: { inradius: number | null; speed: number | null };
+  intended: null | { dt: number; ratio_to_limit: number | null; cells_over_courant: number; max_courant: number | null };
+  warnings: string[];
+  caution: string;
+}
+
+export interface AuditResult {
+  mesh: Mesh;
+  geom: CellGeometry;
+  speed: Float64Array;
+  dt: Float64Array;
+  cause: Uint8Array;
+  courantAtDt: Float64Array | null;
+  summary: AuditSummary;
+}
+
+export const VERSION = '0.1.0';
+
+/** Plain words for a cause bit set. */
+export function describeCause(bits: number): string {
+  const words: string[] = [];
+  if (bits & CAUSE_DEGENERATE) words.push('degenerate cell');
+  if (bits & CAUSE_SMALL) words.push('small cell');
+  if (bits & CAUSE_SHAPE) words.push('poor shape');
+  if (bits & CAUSE_FAST) words.push('fast flow');
+  return words.length ? words.join(' + ') : 'no single cause';
+}
+
+function causeList(bits: number): string[] {
+  const out: string[] = [];
+  if (bits & CAUSE_DEGENERATE) out.push('degenerate');
+  if (bits & CAUSE_SMALL) out.push('small');
+  if (bits & CAUSE_SHAPE) out.push('shape');
+  if (bits & CAUSE_FAST) out.push('fast');
+  return out;
+}
+
+function fmt(x: number): string {
+  return Number(x.toPrecision(3)).toString();
+}
+
+function explain(i: number, bits: number, g: CellGeometry, speed: Float64Array, medH: number | null, medL: number | null, isQuad: boolean): string {
+  if (bits & CAUSE_DEGENERATE) {
+    return g.flags[i]! & FLAG_REPEATED_NODE ? 'uses the same node twice: zero area' : `area ${g.area[i]!.toExponential(2)} is zero to working precision`;
+  }
+  const parts: string[] = [];
+  if (medH && medH > 0) parts.push(`h is ${fmt(g.inradius[i]! / medH)}× the median`);
+  if (medL && medL > 0) parts.push(`λ is ${fmt(speed[i]! / medL)}× the median`);
+  if (bits & CAUSE_SHAPE) parts.push(`radius ratio ${fmt(g.radiusRatio[i]!)} (acceptable ≤ ${isQuad ? RADIUS_RATIO_OK_QUAD : RADIUS_RATIO_OK_TRIANGLE})`);
+  return `${describeCause(bits)}: ${parts.join(', ')}`;
+}
+
+function finiteOrNull(x: number): number | null {
+  return Number.isFinite(x) ? x : null;
+}
+
+export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
+  const C = options.courant ?? 1;
+  if (!(C > 0) || !Number.isFinite(C)) throw new UsageError(`the Courant number must be a positive number, got ${C}`);
+  const top = options.top ?? 10;
+  if (!Number.isInteger(top) || top < 0) throw new UsageError(`--top must be a non-negative integer, got ${top}`);
+  if (options.dt !== undefined && !(options.dt > 0 && Number.isFinite(options.dt))) throw new UsageError(`--dt must be a positive number of seconds, got ${options.dt}`);
+  const model: WaveModel = options.model ?? 'advection';
+  const n = mesh.nCells;
+  const geom = computeGeometry(mesh);
+  const sp = cellSpeeds(mesh, {
+    model,
+    ...(options.velocity !== undefined ? { velocity: options.velocity } : {}),
+    ...(options.depth !== undefined ? { depth: options.depth } : {}),
+    ...(options.gravity !== undefined ? { gravity: options.gravity } : {}),
+    ...(options.soundSpeed !== undefined ? { soundSpeed: options.soundSpeed } : {}),
+    ...(options.file !== undefined ? { file: options.file } : {}),
+  });
+  const speed = sp.speed;
+  const h = geom.inradius;
+  const flags = geom.flags;
+  const dt = new Float64Array(n);
+  let unlimited = 0;
+  for (let i = 0; i < n; i++) {
+    if (flags[i]! & FLAG_DEGENERATE) { dt[i] = 0; continue; }
+    const l = speed[i]!;
+    if (l > 0) dt[i] = (C * h[i]!) / l;
+    else { dt[i] = Infinity; unlimited++; }
+  }
+
+  const hs = sortedFinite(h);
+  const medH = quantileSorted(hs, 0.5);
+  let nMoving = 0;
+  for (let i = 0; i < n; i++) if (speed[i]! > 0) nMoving++;
+  const movingSpeeds = new Float64Array(nMoving);
+  for (let i = 0, j = 0; i < n; i++) if (speed[i]! > 0) movingSpeeds[j++] = speed[i]!;
+  movingSpeeds.sort();
+  const medL = quantileSorted(movingSpeeds, 0.5);
+
+  const cause = new Uint8Array(n);
+  const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0 };
+  let nTri = 0, nQuad = 0;
+  for (let i = 0; i < n; i++) {
+    const f = flags[i]!;
+    const isQuad = mesh.cellTypes[i] === QUAD;
+    if (isQuad) nQuad++; else nTri++;
+    let b = 0;
+    if (f & FLAG_DEGENERATE) { b |= CAUSE_DEGENERATE; counts.degenerate++; }
+    if (f & FLAG_REPEATED_NODE) counts.repeated_node++;
+    if (f & FLAG_INVERTED) counts.inverted++;
+    if (f & FLAG_NONCONVEX) counts.non_convex++;
+    if (!(f & FLAG_DEGENERATE)) {
+      if (medH !== null && h[i]! <= SMALL_FACTOR * medH) { b |= CAUSE_SMALL; counts.small++; }
+      if (geom.radiusRatio[i]! > (isQuad ? RADIUS_RATIO_OK_QUAD : RADIUS_RATIO_OK_TRIANGLE)) { b |= CAUSE_SHAPE; counts.poor_shape++; }
+      if (medL !== null && speed[i]! >= FAST_FACTOR * medL) { b |= CAUSE_FAST; counts.fast++; }
+    }
+    cause[i] = b;
+  }
+
+  const worstIdx = smallestK(dt, top);
+  const worst: WorstCell[] = [];
+  for (let k = 0; k < worstIdx.length; k++) {
+    const i = worstIdx[k]!;
+    const isQuad = mesh.cellTypes[i] === QUAD;
+    worst.push({
+      cell: i,
+      dt: finiteOrNull(dt[i]!),
+      type: cellTypeName(mesh.cellTypes[i]!),
+      centroid: [geom.centroidX[i]!, geom.centroidY[i]!],
+      area: geom.area[i]!,
+      inradius: h[i]!,
+      speed: speed[i]!,
+      radius_ratio: finiteOrNull(geom.radiusRatio[i]!),
+      min_angle: geom.minAngle[i]!,
+      cause: causeList(cause[i]!),
+      why: explain(i, cause[i]!, geom, speed, medH, medL, isQuad),
+    });
+  }
+
+  // the global limit: the smallest dt (a degenerate cell, dt = 0, caps it at zero)
+  const limitCell = n === 0 ? -1 : worstIdx.length > 0 ? worstIdx[0]! : smallestK(dt, 1)[0]!;
+  const limitDt = limitCell >= 0 && dt[limitCell]! < Infinity ? dt[limitCell]! : null;
+
+  const sorted = sortedFinite(dt);
+  let within2 = 0, within10 = 0;
+  if (limitDt !== null) {
+    for (let i = 0; i < sorted.length; i++) {
+      const v = sorted[i]!;
+      if (v <= 2 * limitDt) within2++;
+      if (v <= 10 * limitDt) within10++; else break;
+    }
+  }
+  const histogram: AuditSummary['histogram'] = [];
+  {
+    const byDecade = new Map<number, number>();
+    for (let i = 0; i < sorted.length; i++) {
+      const v = sorted[i]!;
+      if (!(v > 0)) continue;
+      let d = Math.floor(Math.log10(v));
+      if (10 ** (d + 1) <= v) d++;
+      else if (10 ** d > v) d--;
+      byDecade.set(d, (byDecade.get(d) ?? 0) + 1);
+    }
+    const ds = [...byDecade.keys()].sort((a, b) => a - b);
+    if (ds.length) {
+      for (let d = ds[0]!; d <= ds[ds.length - 1]!; d++) histogram.push({ decade: d, from: 10 ** d, to: 10 ** (d + 1), cells: byDecade.get(d) ?? 0 });
+    }
+  }
+
+  let courantAtDt: Float64Array | null = null;
+  let intended: AuditSummary['intended'] = null;
+  if (options.dt !== undefined) {
+    const X = options.dt;
+    courantAtDt = new Float64Array(n);
+    let over = 0;
+    let maxC = 0;
+    for (let i = 0; i < n; i++) {
+      const l = speed[i]!;
+      const c = l === 0 ? 0 : h[i]! > 0 && !(flags[i]! & FLAG_DEGENERATE) ? (X * l) / h[i]! : Infinity;
+      courantAtDt[i] = c;
+      if (c > maxC) maxC = c;
+      if (X > dt[i]!) over++;
+    }
+    intended = { dt: X, ratio_to_limit: limitDt !== null && limitDt > 0 ? X / limitDt : null, cells_over_courant: over, max_courant: finiteOrNull(maxC) };
+  }
+
+  const warnings = [...mesh.warnings, ...sp.warnings];
+  if (counts.degenerate > 0) warnings.push(`${counts.degenerate} degenerate cell(s) (zero area or a repeated node): their step is 0 and they cap the run until fixed`);
+  if (counts.inverted > 0) warnings.push(`${counts.inverted} cell(s) are inverted (node order opposite to the rest of the mesh)`);
+  if (counts.non_convex > 0) warnings.push(`${counts.non_convex} quad(s) are non-convex or self-intersecting`);
+  if (n > 0 && unlimited === n) warnings.push('the flow is at rest everywhere: no cell limits the step');
+
+  const q = (p: number) => quantileSorted(sorted, p);
+  const lim = limitCell >= 0 ? limitCell : null;
+  const summary: AuditSummary = {
+    steplens: VERSION,
+    file: options.file ?? null,
+    units: { length: 'm', time: 's', speed: 'm/s' },
+    mesh: { cells: n, points: mesh.nPoints, types: { triangle: nTri, quad: nQuad }, format: mesh.format },
+    model: {
+      name: model,
+      velocity: sp.velocitySource,
+      depth: sp.depthSource,
+      gravity: model === 'shallow-water' ? options.gravity ?? STANDARD_GRAVITY : null,
+      sound_speed: sp.soundSource,
+    },
+    limit: {
+      dt: limitDt,
+      cell: limitDt === null ? null : lim,
+      courant: C,
+      courant_source: options.courantSource ?? (options.courant === undefined ? 'default: first-order upwind with forward Euler' : 'given with --courant'),
+      centroid: limitDt === null || lim === null ? null : [geom.centroidX[lim]!, geom.centroidY[lim]!],
+      cause: limitDt === null || lim === null ? [] : causeList(cause[lim]!),
+      why: limitDt === null || lim === null ? null : explain(lim, cause[lim]!, geom, speed, medH, medL, mesh.cellTypes[lim] === QUAD),
+    },
+    worst,
+    quantiles: { min: q(0), p01: q(0.01), p05: q(0.05), p25: q(0.25), median: q(0.5), p75: q(0.75), p95: q(0.95), max: q(1) },
+    near_limit: { within_2x: within2, within_10x: within10 },
+    histogram,
+    counts,
+    medians: { inradius: medH, speed: medL },
+    intended,
+    warnings,
+    caution: CAUTION,
+  };
+  return { mesh, geom, speed, dt, cause, courantAtDt, summary };
+}

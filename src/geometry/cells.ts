@@ -1,0 +1,254 @@
+/**
+ * Per-cell geometry and quality, float64, one pass over the cells.
+ *
+ * Every cell is computed with coordinates relative to its first node, so meshes in projected
+ * map coordinates keep their precision. Quality measures follow the definitions of
+ * Stimpson, Ernst, Knupp, Pébay, Thompson, "The Verdict Library Reference Manual",
+ * Sandia SAND2007-2853P (2007); the quad radius ratio uses the corrected form
+ * √(ΣLᵢ²)·h_max / (4√2·min Aᵢ) (Aᵢ: the four corner-triangle areas) as the library does.
+ */
+import { QUAD, type Mesh } from '../mesh/model.js';
+
+export const FLAG_DEGENERATE = 1;
+export const FLAG_INVERTED = 2;
+export const FLAG_NONCONVEX = 4;
+export const FLAG_REPEATED_NODE = 8;
+
+/** Degenerate when area ≤ DEGENERATE_AREA · (longest edge)². */
+export const DEGENERATE_AREA = 1e-12;
+
+export interface CellGeometry {
+  /** Signed area (positive for counter-clockwise node order). */
+  signedArea: Float64Array;
+  area: Float64Array;
+  perimeter: Float64Array;
+  /** Inscribed length h = 2A/P: the inradius of a triangle, Δx/… for a strip of thin quads. */
+  inradius: Float64Array;
+  /** Circumradius of triangles; 0 for quads (not defined). */
+  circumradius: Float64Array;
+  /** 2A / longest edge. */
+  minAltitude: Float64Array;
+  minEdge: Float64Array;
+  maxEdge: Float64Array;
+  /** Degrees. */
+  minAngle: Float64Array;
+  maxAngle: Float64Array;
+  radiusRatio: Float64Array;
+  aspectRatio: Float64Array;
+  scaledJacobian: Float64Array;
+  condition: Float64Array;
+  edgeRatio: Float64Array;
+  centroidX: Float64Array;
+  centroidY: Float64Array;
+  flags: Uint8Array;
+  /** Orientation of the majority of non-degenerate cells: 1 (counter-clockwise) or -1. */
+  orientation: number;
+}
+
+const RAD2DEG = 180 / Math.PI;
+const SQRT3 = Math.sqrt(3);
+const SQRT2 = Math.SQRT2;
+
+export function allocGeometry(n: number): CellGeometry {
+  const f = () => new Float64Array(n);
+  return {
+    signedArea: f(), area: f(), perimeter: f(), inradius: f(), circumradius: f(), minAltitude: f(),
+    minEdge: f(), maxEdge: f(), minAngle: f(), maxAngle: f(), radiusRatio: f(), aspectRatio: f(),
+    scaledJacobian: f(), condition: f(), edgeRatio: f(), centroidX: f(), centroidY: f(),
+    flags: new Uint8Array(n), orientation: 1,
+  };
+}
+
+/** Angle in degrees between two vectors given their cross and dot products. */
+function angleDeg(cross: number, dot: number): number {
+  return Math.atan2(Math.abs(cross), dot) * RAD2DEG;
+}
+
+/** Interior angle (degrees) at a quad corner between −e_{k−1} = −(ax,ay) and e_k = (bx,by); reflex when α < 0. */
+function cornerAngle(ax: number, ay: number, bx: number, by: number, alpha: number): number {
+  const t = Math.atan2(Math.abs(alpha), -(ax * bx + ay * by)) * RAD2DEG;
+  return alpha < 0 ? 360 - t : t;
+}
+
+/** Verdict's corner condition number (|L_k|² + |L_{k−1}|²) / α_k (halved by the caller). */
+function cornerCondition(alpha: number, la: number, lb: number): number {
+  return alpha > 0 ? (la * la + lb * lb) / alpha : Infinity;
+}
+
+/** Triangle kernel. Vertices relative to the first node: (0,0), (bx,by), (cx,cy). */
+function triangle(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by: number, cx: number, cy: number, repeated: boolean): void {
+  // edges: e0 = b - a, e1 = c - b, e2 = a - c
+  const e1x = cx - bx, e1y = cy - by;
+  const l0 = Math.hypot(bx, by);
+  const l1 = Math.hypot(e1x, e1y);
+  const l2 = Math.hypot(cx, cy);
+  const cross = bx * cy - by * cx; // 2 × signed area
+  const sa = 0.5 * cross;
+  const A = Math.abs(sa);
+  const P = l0 + l1 + l2;
+  let lmin = l0, lmax = l0;
+  if (l1 < lmin) lmin = l1; if (l1 > lmax) lmax = l1;
+  if (l2 < lmin) lmin = l2; if (l2 > lmax) lmax = l2;
+  g.signedArea[i] = sa;
+  g.area[i] = A;
+  g.perimeter[i] = P;
+  g.minEdge[i] = lmin;
+  g.maxEdge[i] = lmax;
+  g.centroidX[i] = ox + (bx + cx) / 3;
+  g.centroidY[i] = oy + (by + cy) / 3;
+  // corner dot products: at a: e0·(−e2) = b·c; at b: (−e0)·e1; at c: (−e1)·e2... written out
+  const da = bx * cx + by * cy;
+  const db = -(bx * e1x + by * e1y);
+  const dc = e1x * cx + e1y * cy; // (a - c)·(b - c) = (−c)·(−e1) = c·e1
+  const twoA = 2 * A;
+  // angle opposite each edge: opposite l0 is at c, opposite l1 at a, opposite l2 at b
+  const angA = angleDeg(twoA, da), angB = angleDeg(twoA, db), angC = angleDeg(twoA, dc);
+  let amin = angA, amax = angA;
+  if (angB < amin) amin = angB; if (angB > amax) amax = angB;
+  if (angC < amin) amin = angC; if (angC > amax) amax = angC;
+  const degenerate = repeated || !(A > DEGENERATE_AREA * lmax * lmax);
+  if (degenerate) {
+    g.flags[i] |= FLAG_DEGENERATE | (repeated ? FLAG_REPEATED_NODE : 0);
+    g.inradius[i] = P > 0 ? twoA / P : 0;
+    g.circumradius[i] = Infinity;
+    g.minAltitude[i] = lmax > 0 ? twoA / lmax : 0;
+    g.minAngle[i] = A > 0 ? amin : 0;
+    g.maxAngle[i] = A > 0 ? amax : 180;
+    g.radiusRatio[i] = Infinity;
+    g.aspectRatio[i] = Infinity;
+    g.scaledJacobian[i] = 0;
+    g.condition[i] = Infinity;
+    g.edgeRatio[i] = lmin > 0 ? lmax / lmin : Infinity;
+    return;
+  }
+  const r = twoA / P;
+  const R = (l0 * l1 * l2) / (4 * A);
+  g.inradius[i] = r;
+  g.circumradius[i] = R;
+  g.minAltitude[i] = twoA / lmax;
+  g.minAngle[i] = amin;
+  g.maxAngle[i] = amax;
+  g.radiusRatio[i] = R / (2 * r);
+  g.aspectRatio[i] = (lmax * P) / (4 * SQRT3 * A);
+  // scaled Jacobian: (2/√3) · min over corners of 2A / (product of the two adjacent edges)
+  const pmax = Math.max(l0 * l2, l0 * l1, l1 * l2);
+  g.scaledJacobian[i] = (2 / SQRT3) * (twoA / pmax);
+  // condition: (|v1|² + |v2|² − v1·v2) / (2A·√3) with v1 = b − a, v2 = c − a
+  g.condition[i] = (l0 * l0 + l2 * l2 - da) / (twoA * SQRT3);
+  g.edgeRatio[i] = lmax / lmin;
+}
+
+/** Quad kernel. Vertices relative to the first node: (0,0), b, c, d. */
+function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by: number, cx: number, cy: number, dx: number, dy: number, repeated: boolean): void {
+  // edges e0 = b − a, e1 = c − b, e2 = d − c, e3 = a − d
+  const e0x = bx, e0y = by;
+  const e1x = cx - bx, e1y = cy - by;
+  const e2x = dx - cx, e2y = dy - cy;
+  const e3x = -dx, e3y = -dy;
+  const l0 = Math.hypot(e0x, e0y), l1 = Math.hypot(e1x, e1y), l2 = Math.hypot(e2x, e2y), l3 = Math.hypot(e3x, e3y);
+  // shoelace with a at the origin: 2A = b×c + c×d
+  const sa = 0.5 * ((bx * cy - by * cx) + (cx * dy - cy * dx));
+  const A = Math.abs(sa);
+  const P = l0 + l1 + l2 + l3;
+  const lmin = Math.min(l0, l1, l2, l3);
+  const lmax = Math.max(l0, l1, l2, l3);
+  g.signedArea[i] = sa;
+  g.area[i] = A;
+  g.perimeter[i] = P;
+  g.minEdge[i] = lmin;
+  g.maxEdge[i] = lmax;
+  // area centroid (vertex mean when the area vanishes)
+  if (A > 0) {
+    const c1 = bx * cy - by * cx, c2 = cx * dy - cy * dx;
+    g.centroidX[i] = ox + ((bx + cx) * c1 + (cx + dx) * c2) / (6 * sa);
+    g.centroidY[i] = oy + ((by + cy) * c1 + (cy + dy) * c2) / (6 * sa);
+  } else {
+    g.centroidX[i] = ox + (bx + cx + dx) / 4;
+    g.centroidY[i] = oy + (by + cy + dy) / 4;
+  }
+  // corner cross products in the quad's own orientation: α_k = e_{k−1} × e_k
+  const s = sa < 0 ? -1 : 1;
+  const a0 = s * (e3x * e0y - e3y * e0x);
+  const a1 = s * (e0x * e1y - e0y * e1x);
+  const a2 = s * (e1x * e2y - e1y * e2x);
+  const a3 = s * (e2x * e3y - e2y * e3x);
+  if (a0 < 0 || a1 < 0 || a2 < 0 || a3 < 0) g.flags[i] |= FLAG_NONCONVEX;
+  // interior angles: at corner k between −e_{k−1} and e_k; reflex where α_k < 0
+  const q0 = cornerAngle(e3x, e3y, e0x, e0y, a0), q1 = cornerAngle(e0x, e0y, e1x, e1y, a1);
+  const q2 = cornerAngle(e1x, e1y, e2x, e2y, a2), q3 = cornerAngle(e2x, e2y, e3x, e3y, a3);
+  const amin = Math.min(q0, q1, q2, q3), amax = Math.max(q0, q1, q2, q3);
+  const degenerate = repeated || !(A > DEGENERATE_AREA * lmax * lmax);
+  const twoA = 2 * A;
+  g.inradius[i] = P > 0 ? twoA / P : 0;
+  g.circumradius[i] = 0;
+  if (degenerate) {
+    g.flags[i] |= FLAG_DEGENERATE | (repeated ? FLAG_REPEATED_NODE : 0);
+    g.minAltitude[i] = 0;
+    g.minAngle[i] = lmin > 0 ? amin : 0;
+    g.maxAngle[i] = lmin > 0 ? amax : 180;
+    g.radiusRatio[i] = Infinity;
+    g.aspectRatio[i] = Infinity;
+    g.scaledJacobian[i] = 0;
+    g.condition[i] = Infinity;
+    g.edgeRatio[i] = lmin > 0 ? lmax / lmin : Infinity;
+    return;
+  }
+  g.minAltitude[i] = twoA / lmax;
+  g.minAngle[i] = amin;
+  g.maxAngle[i] = amax;
+  const m2 = cx * cx + cy * cy; // diagonal a–c
+  const n2x = dx - bx, n2y = dy - by;
+  const n2 = n2x * n2x + n2y * n2y; // diagonal b–d
+  const h2 = Math.max(lmax * lmax, m2, n2);
+  const amn = Math.min(Math.abs(a0), Math.abs(a1), Math.abs(a2), Math.abs(a3));
+  const sumL2 = l0 * l0 + l1 * l1 + l2 * l2 + l3 * l3;
+  g.radiusRatio[i] = amn > 0 ? Math.sqrt(sumL2 * h2) / (2 * SQRT2 * amn) : Infinity;
+  g.aspectRatio[i] = (0.5 * lmax * P) / (Math.abs(a1) + Math.abs(a3));
+  g.scaledJacobian[i] = Math.min(a0 / (l0 * l3), a1 / (l1 * l0), a2 / (l2 * l1), a3 / (l3 * l2));
+  const cond = Math.max(
+    cornerCondition(a0, l0, l3), cornerCondition(a1, l1, l0), cornerCondition(a2, l2, l1), cornerCondition(a3, l3, l2));
+  g.condition[i] = cond / 2;
+  g.edgeRatio[i] = lmax / lmin;
+}
+
+/** Compute geometry for every cell of the mesh. */
+export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh.nCells), from = 0, to = mesh.nCells): CellGeometry {
+  const pts = mesh.points;
+  const off = mesh.cellOffsets;
+  const nodes = mesh.cellNodes;
+  const types = mesh.cellTypes;
+  for (let i = from; i < to; i++) {
+    const s = off[i]!;
+    const na = nodes[s]!, nb = nodes[s + 1]!, nc = nodes[s + 2]!;
+    const ox = pts[2 * na]!, oy = pts[2 * na + 1]!;
+    const bx = pts[2 * nb]! - ox, by = pts[2 * nb + 1]! - oy;
+    const cx = pts[2 * nc]! - ox, cy = pts[2 * nc + 1]! - oy;
+    g.flags[i] = 0;
+    if (types[i] === QUAD) {
+      const nd = nodes[s + 3]!;
+      const dx = pts[2 * nd]! - ox, dy = pts[2 * nd + 1]! - oy;
+      const rep = na === nb || na === nc || na === nd || nb === nc || nb === nd || nc === nd;
+      quad(g, i, ox, oy, bx, by, cx, cy, dx, dy, rep);
+    } else {
+      const rep = na === nb || na === nc || nb === nc;
+      triangle(g, i, ox, oy, bx, by, cx, cy, rep);
+    }
+  }
+  markInverted(g, from, to);
+  return g;
+}
+
+/** Inverted = orientation opposite to the majority of non-degenerate cells. */
+function markInverted(g: CellGeometry, from: number, to: number): void {
+  let pos = 0, neg = 0;
+  for (let i = from; i < to; i++) {
+    if (g.flags[i]! & FLAG_DEGENERATE) continue;
+    if (g.signedArea[i]! > 0) pos++; else neg++;
+  }
+  const orient = neg > pos ? -1 : 1;
+  g.orientation = orient;
+  for (let i = from; i < to; i++) {
+    if (g.flags[i]! & FLAG_DEGENERATE) continue;
+    if (g.signedArea[i]! * orient < 0) g.flags[i] |= FLAG_INVERTED;
+  }
+}
