@@ -75,6 +75,19 @@ function cornerCondition(alpha: number, la: number, lb: number): number {
   return alpha > 0 ? (la * la + lb * lb) / alpha : Infinity;
 }
 
+/** Values of a degenerate cell: shape measures at their worst, never NaN. */
+function setDegenerate(g: CellGeometry, i: number, repeated: boolean, altitude: number, amin: number, amax: number, lmin: number, lmax: number): void {
+  g.flags[i] |= FLAG_DEGENERATE | (repeated ? FLAG_REPEATED_NODE : 0);
+  g.minAltitude[i] = altitude;
+  g.minAngle[i] = amin;
+  g.maxAngle[i] = amax;
+  g.radiusRatio[i] = Infinity;
+  g.aspectRatio[i] = Infinity;
+  g.scaledJacobian[i] = 0;
+  g.condition[i] = Infinity;
+  g.edgeRatio[i] = lmin > 0 ? lmax / lmin : Infinity;
+}
+
 /** Triangle kernel. Vertices relative to the first node: (0,0), (bx,by), (cx,cy). */
 function triangle(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by: number, cx: number, cy: number, repeated: boolean): void {
   // edges: e0 = b - a, e1 = c - b, e2 = a - c
@@ -108,17 +121,9 @@ function triangle(g: CellGeometry, i: number, ox: number, oy: number, bx: number
   if (angC < amin) amin = angC; if (angC > amax) amax = angC;
   const degenerate = repeated || !(A > DEGENERATE_AREA * lmax * lmax);
   if (degenerate) {
-    g.flags[i] |= FLAG_DEGENERATE | (repeated ? FLAG_REPEATED_NODE : 0);
     g.inradius[i] = P > 0 ? twoA / P : 0;
     g.circumradius[i] = Infinity;
-    g.minAltitude[i] = lmax > 0 ? twoA / lmax : 0;
-    g.minAngle[i] = A > 0 ? amin : 0;
-    g.maxAngle[i] = A > 0 ? amax : 180;
-    g.radiusRatio[i] = Infinity;
-    g.aspectRatio[i] = Infinity;
-    g.scaledJacobian[i] = 0;
-    g.condition[i] = Infinity;
-    g.edgeRatio[i] = lmin > 0 ? lmax / lmin : Infinity;
+    setDegenerate(g, i, repeated, lmax > 0 ? twoA / lmax : 0, A > 0 ? amin : 0, A > 0 ? amax : 180, lmin, lmax);
     return;
   }
   const r = twoA / P;
@@ -182,15 +187,7 @@ function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by
   g.inradius[i] = P > 0 ? twoA / P : 0;
   g.circumradius[i] = 0;
   if (degenerate) {
-    g.flags[i] |= FLAG_DEGENERATE | (repeated ? FLAG_REPEATED_NODE : 0);
-    g.minAltitude[i] = 0;
-    g.minAngle[i] = lmin > 0 ? amin : 0;
-    g.maxAngle[i] = lmin > 0 ? amax : 180;
-    g.radiusRatio[i] = Infinity;
-    g.aspectRatio[i] = Infinity;
-    g.scaledJacobian[i] = 0;
-    g.condition[i] = Infinity;
-    g.edgeRatio[i] = lmin > 0 ? lmax / lmin : Infinity;
+    setDegenerate(g, i, repeated, 0, lmin > 0 ? amin : 0, lmin > 0 ? amax : 180, lmin, lmax);
     return;
   }
   g.minAltitude[i] = twoA / lmax;
