@@ -1,0 +1,115 @@
+/** The CLI run as a process: exit codes, JSON and CSV shape, --fail-below, bad input. */
+import { describe, expect, it, beforeAll } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import * as fs from 'node:fs';
+import * as os from 'node:os';
+import * as path from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+const bin = path.join(root, 'bin/steplens.js');
+let tmp = '';
+
+function run(args: string[]) {
+  const r = spawnSync(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8', timeout: 60000 });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+beforeAll(() => {
+  tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'steplens-cli-'));
+  if (!fs.existsSync(path.join(root, 'dist/cli/main.js'))) throw new Error('run `npm run build:cli` first (npm test does)');
+});
+
+/** An ASCII legacy VTK file: two unit right triangles and a point velocity (hand-written). */
+function smallVtk(u = '1 0 0'): string {
+  return `# vtk DataFile Version 4.2
+two triangles
+ASCII
+DATASET UNSTRUCTURED_GRID
+POINTS 4 double
+0 0 0  1 0 0  1 1 0  0 1 0
+CELLS 2 8
+3 0 1 2
+3 0 2 3
+CELL_TYPES 2
+5 5
+POINT_DATA 4
+VECTORS velocity double
+${u}  ${u}  ${u}  ${u}
+`;
+}
+
+describe('steplens audit (process)', () => {
+  it('--json: the summary contract on stdout, exit 0', () => {
+    const f = path.join(tmp, 'two.vtk');
+    fs.writeFileSync(f, smallVtk('2 0 0'));
+    const r = run(['audit', f, '--json', '--top', '5']);
+    expect(r.err).toBe('');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    expect(j.mesh).toMatchObject({ cells: 2, points: 4, types: { triangle: 2, quad: 0 } });
+    // h = 2A/P = 1/(2+√2) for a unit right triangle; λ = 2
+    expect(j.limit.dt).toBeCloseTo(1 / (2 + Math.SQRT2) / 2, 14);
+    expect(j.limit.cell).toBe(0);
+    expect(j.limit.courant).toBe(1);
+    expect(j.worst.map((w: { cell: number }) => w.cell)).toEqual([0, 1]);
+    expect(j.units).toEqual({ length: 'm', time: 's', speed: 'm/s' });
+  });
+
+  it('--cells and --vtu: the CSV contract and a VTU that reads back with the results', () => {
+    const f = path.join(tmp, 'two.vtk');
+    fs.writeFileSync(f, smallVtk());
+    const csv = path.join(tmp, 'cells.csv');
+    const vtu = path.join(tmp, 'out.vtu');
+    const r = run(['audit', f, '--cells', csv, '--vtu', vtu, '--dt', '0.1']);
+    expect(r.code).toBe(0);
+    const lines = fs.readFileSync(csv, 'utf8').trimEnd().split('\n');
+    const head = lines[0]!.split(',');
+    for (const c of ['cell', 'type', 'area', 'perimeter', 'inradius', 'speed', 'dt', 'radius_ratio', 'min_angle', 'courant']) expect(head).toContain(c);
+    expect(lines).toHaveLength(3);
+    expect(lines[1]!.split(',')[head.indexOf('area')]).toBe('0.5');
+    const back = run(['audit', vtu, '--json']);
+    expect(back.code).toBe(0);
+    expect(JSON.parse(back.out).limit.dt).toBeCloseTo(1 / (2 + Math.SQRT2), 14);
+    expect(fs.readdirSync(tmp).filter((n) => n.endsWith('.tmp'))).toEqual([]);
+  });
+
+  it('--fail-below exits 3 under the limit and 0 above it', () => {
+    const f = path.join(tmp, 'two.vtk');
+    fs.writeFileSync(f, smallVtk());
+    expect(run(['audit', f, '--fail-below', '1']).code).toBe(3);
+    expect(run(['audit', f, '--fail-below', '0.1']).code).toBe(0);
+  });
+
+  it('bad usage and bad files exit 2 with one clear line naming the file', () => {
+    const missing = run(['audit', path.join(tmp, 'nope.vtu')]);
+    expect(missing.code).toBe(2);
+    expect(missing.err).toMatch(/nope\.vtu: no such file/);
+    const empty = path.join(tmp, 'empty.vtu');
+    fs.writeFileSync(empty, '');
+    const e = run(['audit', empty]);
+    expect(e.code).toBe(2);
+    expect(e.err.trim().split('\n')).toHaveLength(1);
+    expect(e.err).toMatch(/empty\.vtu: the file is empty/);
+    const f = path.join(tmp, 'two.vtk');
+    fs.writeFileSync(f, smallVtk());
+    const noVel = run(['audit', f, '--velocity', 'speed']);
+    expect(noVel.code).toBe(2);
+    expect(noVel.err).toMatch(/no array named "speed".*velocity \(point, 3\)/);
+    expect(run(['audit', f, '--model', 'magic']).code).toBe(2);
+    expect(run(['audit', f, '--bogus']).code).toBe(2);
+    expect(run(['audit', f, '--cells', f]).err).toMatch(/refusing to overwrite the input/);
+    expect(run(['audit', f, '--cells', path.join(tmp, 'no/such/dir/x.csv')]).err).toMatch(/does not exist/);
+    const nan = path.join(tmp, 'nan.vtk');
+    fs.writeFileSync(nan, smallVtk('nan 0 0'));
+    const rn = run(['audit', nan]);
+    expect(rn.code).toBe(2);
+    expect(rn.err).toMatch(/nan\.vtk: array "velocity" holds NaN at tuple 0/);
+    expect(rn.err).not.toMatch(/at .*\.js:/); // no stack trace without --debug
+  });
+
+  it('--help and --version', () => {
+    expect(run(['--version']).out.trim()).toMatch(/^\d+\.\d+\.\d+$/);
+    expect(run(['audit', '--help']).out).toMatch(/--fail-below/);
+  });
+});
