@@ -8,13 +8,19 @@
 import { cellTypeName, QUAD, type Mesh } from '../mesh/model.js';
 import { UsageError } from '../mesh/errors.js';
 import { computeGeometry, FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE, type CellGeometry } from '../geometry/cells.js';
-import { cellSpeeds, STANDARD_GRAVITY, type WaveModel } from '../physics/speed.js';
+import { cellScalar, cellSpeeds, STANDARD_GRAVITY, type WaveModel } from '../physics/speed.js';
+import { buildEdges } from '../geometry/edges.js';
+import { diffusionLimit, fluxLimit } from '../physics/faces.js';
 import { quantileSorted, smallestK, sortedFinite } from './stats.js';
 
 export const CAUSE_SMALL = 1;
 export const CAUSE_SHAPE = 2;
 export const CAUSE_FAST = 4;
 export const CAUSE_DEGENERATE = 8;
+/** The diffusive limit is below the advective one. */
+export const CAUSE_DIFFUSION = 16;
+
+export type LengthRule = 'inscribed' | 'flux';
 
 /** A cell is "small" when h ≤ SMALL_FACTOR × the median h (common practice, our threshold). */
 export const SMALL_FACTOR = 0.5;
@@ -44,6 +50,12 @@ export interface AuditOptions {
   courantSource?: string;
   /** The step the run intends to use, seconds. */
   dt?: number;
+  /** Advective limit from the inscribed length (default) or the exact face flux. */
+  length?: LengthRule;
+  /** Kinematic diffusivity ν (m²/s): an array name or a constant. Adds the diffusive limit. */
+  diffusivity?: string | number;
+  /** D in dt_diff = D·A/Σ(ν|f|/d): 2·d_max of the time integrator (forward Euler: 1). */
+  diffusionScale?: number;
   /** Number of worst cells listed (default 10). */
   top?: number;
   /** File name for messages and the summary. */
@@ -69,13 +81,13 @@ export interface AuditSummary {
   file: string | null;
   units: { length: 'm'; time: 's'; speed: 'm/s' };
   mesh: { cells: number; points: number; types: { triangle: number; quad: number }; format: string };
-  model: { name: WaveModel; velocity: string | null; depth: string | null; gravity: number | null; sound_speed: string | null };
-  limit: { dt: number | null; cell: number | null; courant: number; courant_source: string; centroid: [number, number] | null; cause: string[]; why: string | null };
+  model: { name: WaveModel; velocity: string | null; depth: string | null; gravity: number | null; sound_speed: string | null; diffusivity: string | null; diffusion_scale: number | null };
+  limit: { dt: number | null; cell: number | null; courant: number; courant_source: string; centroid: [number, number] | null; cause: string[]; why: string | null; length: LengthRule; parts: Record<string, { dt: number | null; cell: number | null }> };
   worst: WorstCell[];
   quantiles: { min: number | null; p01: number | null; p05: number | null; p25: number | null; median: number | null; p75: number | null; p95: number | null; max: number | null };
   near_limit: { within_2x: number; within_10x: number };
   histogram: { decade: number; from: number; to: number; cells: number }[];
-  counts: { degenerate: number; repeated_node: number; inverted: number; non_convex: number; dry: number; unlimited: number; small: number; poor_shape: number; fast: number };
+  counts: { degenerate: number; repeated_node: number; inverted: number; non_convex: number; dry: number; unlimited: number; small: number; poor_shape: number; fast: number; diffusion: number };
   medians: { inradius: number | null; speed: number | null };
   intended: null | { dt: number; ratio_to_limit: number | null; cells_over_courant: number; max_courant: number | null };
   warnings: string[];
@@ -86,7 +98,14 @@ export interface AuditResult {
   mesh: Mesh;
   geom: CellGeometry;
   speed: Float64Array;
+  /** The step in force per cell (advective, combined with diffusion when given). */
   dt: Float64Array;
+  /** C·h/λ with the inscribed length. */
+  dtInscribed: Float64Array;
+  dtFlux: Float64Array | null;
+  dtDiffusion: Float64Array | null;
+  /** Extra per-cell columns for the CSV/VTU, in order. */
+  columns: { name: string; values: Float64Array }[];
   cause: Uint8Array;
   courantAtDt: Float64Array | null;
   summary: AuditSummary;
@@ -101,6 +120,7 @@ export function describeCause(bits: number): string {
   if (bits & CAUSE_SMALL) words.push('small cell');
   if (bits & CAUSE_SHAPE) words.push('poor shape');
   if (bits & CAUSE_FAST) words.push('fast flow');
+  if (bits & CAUSE_DIFFUSION) words.push('diffusion');
   return words.length ? words.join(' + ') : 'no single cause';
 }
 
@@ -110,6 +130,7 @@ function causeList(bits: number): string[] {
   if (bits & CAUSE_SMALL) out.push('small');
   if (bits & CAUSE_SHAPE) out.push('shape');
   if (bits & CAUSE_FAST) out.push('fast');
+  if (bits & CAUSE_DIFFUSION) out.push('diffusion');
   return out;
 }
 
@@ -126,6 +147,18 @@ function explain(i: number, bits: number, g: CellGeometry, speed: Float64Array, 
   if (medL && medL > 0) parts.push(`λ is ${fmt(speed[i]! / medL)}× the median`);
   if (bits & CAUSE_SHAPE) parts.push(`radius ratio ${fmt(g.radiusRatio[i]!)} (acceptable ≤ ${isQuad ? RADIUS_RATIO_OK_QUAD : RADIUS_RATIO_OK_TRIANGLE})`);
   return `${describeCause(bits)}: ${parts.join(', ')}`;
+}
+
+/** Global minimum and its cell for each partial limit that was computed. */
+function partLimits(parts: Record<string, Float64Array | null>): Record<string, { dt: number | null; cell: number | null }> {
+  const out: Record<string, { dt: number | null; cell: number | null }> = {};
+  for (const [name, a] of Object.entries(parts)) {
+    if (!a) continue;
+    let best = Infinity, cell = -1;
+    for (let i = 0; i < a.length; i++) if (a[i]! < best) { best = a[i]!; cell = i; }
+    out[name] = cell < 0 ? { dt: null, cell: null } : { dt: best, cell };
+  }
+  return out;
 }
 
 function finiteOrNull(x: number): number | null {
@@ -152,13 +185,41 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const speed = sp.speed;
   const h = geom.inradius;
   const flags = geom.flags;
-  const dt = new Float64Array(n);
+  const dtInscribed = new Float64Array(n);
   let unlimited = 0;
   for (let i = 0; i < n; i++) {
-    if (flags[i]! & FLAG_DEGENERATE) { dt[i] = 0; continue; }
+    if (flags[i]! & FLAG_DEGENERATE) { dtInscribed[i] = 0; continue; }
     const l = speed[i]!;
-    if (l > 0) dt[i] = (C * h[i]!) / l;
-    else { dt[i] = Infinity; unlimited++; }
+    dtInscribed[i] = l > 0 ? (C * h[i]!) / l : Infinity;
+  }
+  const lengthRule: LengthRule = options.length ?? 'inscribed';
+  if (lengthRule !== 'inscribed' && lengthRule !== 'flux') throw new UsageError(`--length must be inscribed or flux, got "${String(lengthRule)}"`);
+  const dtFlux = lengthRule === 'flux' ? fluxLimit(mesh, geom, sp.velocity, sp.wave, C) : null;
+  let dtDiffusion: Float64Array | null = null;
+  let diffusivitySource: string | null = null;
+  const D = options.diffusionScale ?? 1;
+  if (options.diffusivity !== undefined) {
+    if (!(D > 0) || !Number.isFinite(D)) throw new UsageError(`the diffusion scale must be positive, got ${D}`);
+    const nu = cellScalar(mesh, options.diffusivity, 'the diffusivity', options.file);
+    diffusivitySource = nu.source;
+    dtDiffusion = diffusionLimit(mesh, geom, buildEdges(mesh, options.file), nu.values, D);
+  }
+  const dtAdvective = dtFlux ?? dtInscribed;
+  let dt = dtAdvective;
+  if (dtDiffusion) {
+    dt = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const a = dtAdvective[i]!, d = dtDiffusion[i]!;
+      // 1/dt = 1/dt_adv + 1/dt_diff (exact for 1-D upwind with FTCS diffusion: c + 2d ≤ 1)
+      dt[i] = a === 0 || d === 0 ? 0 : a === Infinity ? d : d === Infinity ? a : 1 / (1 / a + 1 / d);
+    }
+  }
+  for (let i = 0; i < n; i++) if (dt[i] === Infinity) unlimited++;
+  const columns: AuditResult['columns'] = [];
+  if (dtFlux) columns.push({ name: 'dt_inscribed', values: dtInscribed }, { name: 'dt_flux', values: dtFlux });
+  if (dtDiffusion) {
+    if (!dtFlux) columns.push({ name: 'dt_advective', values: dtAdvective });
+    columns.push({ name: 'dt_diffusion', values: dtDiffusion });
   }
 
   const hs = sortedFinite(h);
@@ -171,7 +232,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const medL = quantileSorted(movingSpeeds, 0.5);
 
   const cause = new Uint8Array(n);
-  const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0 };
+  const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0, diffusion: 0 };
   let nTri = 0, nQuad = 0;
   for (let i = 0; i < n; i++) {
     const f = flags[i]!;
@@ -186,6 +247,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
       if (medH !== null && h[i]! <= SMALL_FACTOR * medH) { b |= CAUSE_SMALL; counts.small++; }
       if (geom.radiusRatio[i]! > (isQuad ? RADIUS_RATIO_OK_QUAD : RADIUS_RATIO_OK_TRIANGLE)) { b |= CAUSE_SHAPE; counts.poor_shape++; }
       if (medL !== null && speed[i]! >= FAST_FACTOR * medL) { b |= CAUSE_FAST; counts.fast++; }
+      if (dtDiffusion && dtDiffusion[i]! < dtAdvective[i]!) { b |= CAUSE_DIFFUSION; counts.diffusion++; }
     }
     cause[i] = b;
   }
@@ -276,6 +338,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
       depth: sp.depthSource,
       gravity: model === 'shallow-water' ? options.gravity ?? STANDARD_GRAVITY : null,
       sound_speed: sp.soundSource,
+      diffusivity: diffusivitySource,
+      diffusion_scale: dtDiffusion ? D : null,
     },
     limit: {
       dt: limitDt,
@@ -285,6 +349,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
       centroid: limitDt === null || lim === null ? null : [geom.centroidX[lim]!, geom.centroidY[lim]!],
       cause: limitDt === null || lim === null ? [] : causeList(cause[lim]!),
       why: limitDt === null || lim === null ? null : explain(lim, cause[lim]!, geom, speed, medH, medL, mesh.cellTypes[lim] === QUAD),
+      length: lengthRule,
+      parts: partLimits({ inscribed: dtInscribed, flux: dtFlux, advective: dtAdvective, diffusion: dtDiffusion }),
     },
     worst,
     quantiles: { min: q(0), p01: q(0.01), p05: q(0.05), p25: q(0.25), median: q(0.5), p75: q(0.75), p95: q(0.95), max: q(1) },
@@ -296,5 +362,5 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
     warnings,
     caution: CAUTION,
   };
-  return { mesh, geom, speed, dt, cause, courantAtDt, summary };
+  return { mesh, geom, speed, dt, dtInscribed, dtFlux, dtDiffusion, columns, cause, courantAtDt, summary };
 }

@@ -26,6 +26,10 @@ physics
   --sound-speed NAME|V  sound speed array or value in m/s (acoustic)
   --courant C           Courant number the scheme tolerates (default 1)
   --dt X                the step the run intends to use: Courant numbers at X
+  --length RULE         inscribed (h = 2A/P, default) or flux (exact face-flux limit of
+                        cell-centred finite volume: C·A / Σ max(u·n, 0)|f|)
+  --diffusivity NAME|V  kinematic diffusivity ν in m²/s: adds dt_diff = A / Σ ν|f|/d_f and
+                        combines 1/dt = 1/dt_adv + 1/dt_diff
 outputs
   --json                print only the JSON summary on stdout
   --cells FILE.csv      per-cell table
@@ -41,7 +45,8 @@ const SPEC: OptionSpec = {
   model: { type: 'string' }, velocity: { type: 'string' }, depth: { type: 'string' }, gravity: { type: 'string' },
   'sound-speed': { type: 'string' }, courant: { type: 'string' }, dt: { type: 'string' }, json: { type: 'boolean' },
   cells: { type: 'string' }, vtu: { type: 'string' }, top: { type: 'string' }, 'fail-below': { type: 'string' },
-  debug: { type: 'boolean' }, help: { type: 'boolean', short: 'h' },
+  debug: { type: 'boolean' }, help: { type: 'boolean', short: 'h' }, length: { type: 'string' },
+  diffusivity: { type: 'string' },
 };
 
 export function auditOptionsFrom(values: Record<string, unknown>, file: string): AuditOptions {
@@ -66,6 +71,16 @@ export function auditOptionsFrom(values: Record<string, unknown>, file: string):
     const s = String(values['sound-speed']);
     const x = Number(s);
     o.soundSpeed = s.trim() !== '' && Number.isFinite(x) ? x : s;
+  }
+  if (values.length !== undefined) {
+    const l = String(values.length);
+    if (l !== 'inscribed' && l !== 'flux') throw new UsageError(`--length must be inscribed or flux; got "${l}"`);
+    o.length = l;
+  }
+  if (values.diffusivity !== undefined) {
+    const s = String(values.diffusivity);
+    const x = Number(s);
+    o.diffusivity = s.trim() !== '' && Number.isFinite(x) ? x : s;
   }
   const c = numberOption(values.courant, 'courant');
   if (c !== undefined) o.courant = c;
@@ -103,6 +118,7 @@ export function writeResults(r: AuditResult, values: Record<string, unknown>, in
       { name: 'cause', components: 1, values: Float64Array.from(r.cause) },
       { name: 'flags', components: 1, values: Float64Array.from(g.flags) },
       ...(r.courantAtDt ? [{ name: 'courant', components: 1, values: r.courantAtDt }] : []),
+      ...r.columns.map((c) => ({ name: c.name, components: 1, values: c.values })),
     ];
     const taken = new Set(cellData.map((a) => a.name));
     const clash = r.mesh.cellData.filter((a) => taken.has(a.name));

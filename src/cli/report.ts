@@ -26,7 +26,10 @@ export function renderReport(s: AuditSummary): string {
   if (s.model.depth) push(`            depth: ${s.model.depth}`);
   if (s.model.sound_speed) push(`            sound speed: ${s.model.sound_speed}`);
   push(`  Courant   C = ${formatNumber(s.limit.courant, 6)} (${s.limit.courant_source})`);
-  push(`  step      dt = C·h/λ per cell, h = 2·area/perimeter`);
+  push(s.limit.length === 'flux'
+    ? '  step      dt = C·A / Σ max(u·n, 0)|f| per cell (exact face flux; inscribed length shown beside it)'
+    : '  step      dt = C·h/λ per cell, h = 2·area/perimeter');
+  if (s.model.diffusivity) push(`  diffusion ν: ${s.model.diffusivity}; dt_diff = ${s.model.diffusion_scale === 1 ? '' : `${formatNumber(s.model.diffusion_scale)}·`}A / Σ ν|f|/d_f, 1/dt = 1/dt_adv + 1/dt_diff`);
   push();
   if (s.limit.dt === null) {
     push('LARGEST STABLE STEP  no limit: no cell has a nonzero wave speed');
@@ -35,6 +38,10 @@ export function renderReport(s: AuditSummary): string {
     push(`LARGEST STABLE STEP  ${formatSeconds(s.limit.dt)}  (${s.limit.dt} s)`);
     push(`  set by cell ${s.limit.cell} at x = ${c ? formatNumber(c[0], 10) : '?'}, y = ${c ? formatNumber(c[1], 10) : '?'}`);
     if (s.limit.why) push(`  because   ${s.limit.why}`);
+    const parts = Object.entries(s.limit.parts).filter(([k]) => k !== 'advective');
+    if (parts.length > 1) {
+      push(`  parts     ${parts.map(([k, v]) => `${k} ${formatSeconds(v.dt)}${v.cell === null ? '' : ` (cell ${v.cell})`}`).join(' · ')}`);
+    }
     push(`  near it   ${formatCount(s.near_limit.within_2x)} cells within 2×, ${formatCount(s.near_limit.within_10x)} within 10× of the limit`);
   }
   if (s.intended) {

@@ -37,7 +37,7 @@ export type ExtraColumns = { name: string; values: Float64Array | Int32Array }[]
 function extraColumns(r: AuditResult, extra: ExtraColumns): ExtraColumns {
   const cols: ExtraColumns = [];
   if (r.courantAtDt) cols.push({ name: 'courant', values: r.courantAtDt });
-  return cols.concat(extra);
+  return cols.concat(r.columns, extra);
 }
 
 /** The table in chunks of about `rows` rows each (a big mesh never becomes one huge string). */

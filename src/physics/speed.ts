@@ -31,6 +31,9 @@ export interface SpeedOptions {
 
 export interface SpeedResult {
   speed: Float64Array;
+  /** The velocity used (components per tuple), for face-based limits. */
+  velocity: VelocityField | null;
+  wave: WaveTerm | null;
   /** Cells whose wave term vanished because the water depth is ≤ 0 at every node. */
   dry: number;
   /** Human description of what was used, e.g. "velocity (point data, 2 components)". */
@@ -83,8 +86,15 @@ function checkFinite(a: DataArray, file: string | undefined): void {
   }
 }
 
-/** |u| per tuple of the velocity source (a vector array or two scalar arrays). */
-function velocityMagnitude(mesh: Mesh, opts: SpeedOptions, warnings: string[]): { mag: Float64Array; onPoints: boolean; source: string } | null {
+export interface VelocityField {
+  vx: Float64Array;
+  vy: Float64Array;
+  onPoints: boolean;
+  source: string;
+}
+
+/** Velocity components per tuple (a vector array or two scalar arrays), or null when none is found. */
+export function velocityField(mesh: Mesh, opts: SpeedOptions, warnings: string[]): VelocityField | null {
   const file = opts.file;
   if (Array.isArray(opts.velocity)) {
     const [nx, ny] = opts.velocity;
@@ -94,10 +104,7 @@ function velocityMagnitude(mesh: Mesh, opts: SpeedOptions, warnings: string[]): 
     if (ax.array.components !== 1 || ay.array.components !== 1) throw new UsageError(`--velocity X,Y takes two scalar arrays; "${nx}" has ${ax.array.components} components, "${ny}" has ${ay.array.components}`);
     checkFinite(ax.array, file);
     checkFinite(ay.array, file);
-    const x = ax.array.values, y = ay.array.values;
-    const mag = new Float64Array(x.length);
-    for (let i = 0; i < x.length; i++) mag[i] = Math.hypot(x[i]!, y[i]!);
-    return { mag, onPoints: ax.onPoints, source: `${nx}, ${ny} (${ax.onPoints ? 'point' : 'cell'} data)` };
+    return { vx: Float64Array.from(ax.array.values), vy: Float64Array.from(ay.array.values), onPoints: ax.onPoints, source: `${nx}, ${ny} (${ax.onPoints ? 'point' : 'cell'} data)` };
   }
   let loc: Located | null;
   if (typeof opts.velocity === 'string') {
@@ -114,18 +121,25 @@ function velocityMagnitude(mesh: Mesh, opts: SpeedOptions, warnings: string[]): 
   const m = a.components;
   const v = a.values;
   const n = v.length / m;
-  const mag = new Float64Array(n);
+  const vx = new Float64Array(n), vy = new Float64Array(n);
   let zmax = 0;
   for (let i = 0; i < n; i++) {
-    const x = v[i * m]!, y = v[i * m + 1]!;
-    mag[i] = Math.sqrt(x * x + y * y);
+    vx[i] = v[i * m]!;
+    vy[i] = v[i * m + 1]!;
     if (m === 3) {
       const z = Math.abs(v[i * m + 2]!);
       if (z > zmax) zmax = z;
     }
   }
   if (zmax > 0) warnings.push(`velocity "${a.name}" has a nonzero z component (up to ${zmax}); only the x-y components are used`);
-  return { mag, onPoints: loc.onPoints, source: `${a.name} (${loc.onPoints ? 'point' : 'cell'} data, ${m} components)` };
+  return { vx, vy, onPoints: loc.onPoints, source: `${a.name} (${loc.onPoints ? 'point' : 'cell'} data, ${m} components)` };
+}
+
+function magnitude(v: VelocityField): Float64Array {
+  const n = v.vx.length;
+  const mag = new Float64Array(n);
+  for (let i = 0; i < n; i++) mag[i] = Math.hypot(v.vx[i]!, v.vy[i]!);
+  return mag;
 }
 
 function scalarArray(mesh: Mesh, name: string, what: string, file: string | undefined): Located {
@@ -135,8 +149,16 @@ function scalarArray(mesh: Mesh, name: string, what: string, file: string | unde
   return loc;
 }
 
-/** Per-tuple wave term (√(gH) or c) or null for plain advection. */
-function waveTerm(mesh: Mesh, opts: SpeedOptions, model: WaveModel): { term: Float64Array | number; onPoints: boolean; source: string; wet: Uint8Array | null } | null {
+export interface WaveTerm {
+  /** √(gH) or c per tuple, or one constant. */
+  term: Float64Array | number;
+  onPoints: boolean;
+  source: string;
+  wet: Uint8Array | null;
+}
+
+/** Per-tuple wave term (√(gH) or c), or null for plain advection. */
+export function waveTerm(mesh: Mesh, opts: SpeedOptions, model: WaveModel): WaveTerm | null {
   if (model === 'shallow-water') {
     if (!opts.depth) throw new UsageError(`--model shallow-water needs --depth NAME; arrays in the file: ${listArrays(mesh)}`);
     const g = opts.gravity ?? STANDARD_GRAVITY;
@@ -195,7 +217,8 @@ export function cellSpeeds(mesh: Mesh, opts: SpeedOptions = {}): SpeedResult {
   const model = opts.model ?? 'advection';
   if (!WAVE_MODELS.includes(model)) throw new UsageError(`unknown model "${model}"; use one of ${WAVE_MODELS.join(', ')}`);
   const warnings: string[] = [];
-  const vel = velocityMagnitude(mesh, opts, warnings);
+  const field = velocityField(mesh, opts, warnings);
+  const vel = field ? { mag: magnitude(field), onPoints: field.onPoints, source: field.source } : null;
   if (!vel && model === 'advection') {
     throw new UsageError(`no velocity array found (tried ${VELOCITY_NAMES.join(', ')}); pass --velocity NAME or --velocity X,Y; arrays in the file: ${listArrays(mesh)}`);
   }
@@ -237,10 +260,31 @@ export function cellSpeeds(mesh: Mesh, opts: SpeedOptions = {}): SpeedResult {
   }
   return {
     speed,
+    velocity: field,
+    wave,
     dry,
     velocitySource: vel ? vel.source : null,
     depthSource: model === 'shallow-water' && wave ? wave.source : null,
     soundSource: model === 'acoustic' && wave ? wave.source : null,
     warnings,
   };
+}
+
+/**
+ * A per-cell scalar from a constant or an array name (point data: the maximum over the cell's
+ * nodes; cell data as is); values must be finite and ≥ 0.
+ */
+export function cellScalar(mesh: Mesh, spec: string | number, what: string, file?: string): { values: Float64Array; source: string } {
+  if (typeof spec === 'number') {
+    if (!(spec >= 0) || !Number.isFinite(spec)) throw new UsageError(`${what} must be a non-negative number, got ${spec}`);
+    return { values: new Float64Array(mesh.nCells).fill(spec), source: `${spec} (constant)` };
+  }
+  const loc = scalarArray(mesh, spec, what, file);
+  const v = loc.array.values;
+  const vals = new Float64Array(v.length);
+  for (let i = 0; i < v.length; i++) {
+    if (v[i]! < 0) throw new MeshInputError(`${what} "${spec}" is negative (${v[i]}) at tuple ${i}`, file === undefined ? {} : { file });
+    vals[i] = v[i]!;
+  }
+  return { values: toCells(mesh, vals, loc.onPoints), source: `${spec} (${loc.onPoints ? 'point' : 'cell'} data)` };
 }

@@ -1,0 +1,91 @@
+/**
+ * Edge topology: every distinct edge with the one or two cells that share it.
+ * Buckets half-edges by their smaller node (counting sort), then matches the larger node inside
+ * each small bucket: O(n), flat typed arrays, no hashing of pairs.
+ */
+import { MeshInputError } from '../mesh/errors.js';
+import type { Mesh } from '../mesh/model.js';
+
+export interface EdgeTopology {
+  nEdges: number;
+  /** Two node indices per edge (smaller first). */
+  edgeNodes: Int32Array;
+  /** Two cells per edge: [c0, c1]; c1 = -1 on a boundary edge. c0 holds the edge as e_k = n_k → n_{k+1}. */
+  edgeCells: Int32Array;
+  /** Local edge index k (edge from node k to node k+1) within c0 and within c1 (-1 on the boundary). */
+  edgeLocal: Int8Array;
+  /** Per half-edge (aligned with cellNodes): the edge it belongs to. */
+  halfEdgeEdge: Int32Array;
+}
+
+export function buildEdges(mesh: Mesh, file?: string): EdgeTopology {
+  const { nPoints, cellOffsets: off, cellNodes: nodes, nCells } = mesh;
+  const nHalf = nodes.length;
+  const start = new Int32Array(nPoints + 1);
+  for (let c = 0; c < nCells; c++) {
+    const s = off[c]!, e = off[c + 1]!;
+    for (let k = s; k < e; k++) {
+      const a = nodes[k]!, b = nodes[k + 1 < e ? k + 1 : s]!;
+      start[(a < b ? a : b) + 1]!++;
+    }
+  }
+  for (let p = 0; p < nPoints; p++) start[p + 1]! += start[p]!;
+  const fill = start.slice(0, nPoints);
+  const bucketHalf = new Int32Array(nHalf); // half-edge index (position in cellNodes)
+  for (let c = 0; c < nCells; c++) {
+    const s = off[c]!, e = off[c + 1]!;
+    for (let k = s; k < e; k++) {
+      const a = nodes[k]!, b = nodes[k + 1 < e ? k + 1 : s]!;
+      bucketHalf[fill[a < b ? a : b]!++] = k;
+    }
+  }
+  // cell of each half-edge
+  const halfCell = new Int32Array(nHalf);
+  for (let c = 0; c < nCells; c++) for (let k = off[c]!; k < off[c + 1]!; k++) halfCell[k] = c;
+  const other = (k: number): number => {
+    const c = halfCell[k]!;
+    const s = off[c]!, e = off[c + 1]!;
+    const a = nodes[k]!, b = nodes[k + 1 < e ? k + 1 : s]!;
+    return a < b ? b : a;
+  };
+  const edgeNodes = new Int32Array(2 * nHalf);
+  const edgeCells = new Int32Array(2 * nHalf);
+  const edgeLocal = new Int8Array(2 * nHalf);
+  const halfEdgeEdge = new Int32Array(nHalf).fill(-1);
+  let ne = 0;
+  for (let p = 0; p < nPoints; p++) {
+    const s = start[p]!, e = start[p + 1]!;
+    for (let i = s; i < e; i++) {
+      const hi = bucketHalf[i]!;
+      if (halfEdgeEdge[hi] !== -1) continue;
+      const q = other(hi);
+      const edge = ne++;
+      halfEdgeEdge[hi] = edge;
+      edgeNodes[2 * edge] = p;
+      edgeNodes[2 * edge + 1] = q;
+      edgeCells[2 * edge] = halfCell[hi]!;
+      edgeCells[2 * edge + 1] = -1;
+      edgeLocal[2 * edge] = hi - off[halfCell[hi]!]!;
+      edgeLocal[2 * edge + 1] = -1;
+      let count = 1;
+      for (let j = i + 1; j < e; j++) {
+        const hj = bucketHalf[j]!;
+        if (halfEdgeEdge[hj] !== -1 || other(hj) !== q) continue;
+        count++;
+        if (count > 2) {
+          throw new MeshInputError(`the edge between nodes ${p} and ${q} is shared by three or more cells (cells ${edgeCells[2 * edge]}, ${edgeCells[2 * edge + 1]}, ${halfCell[hj]})`, file === undefined ? {} : { file });
+        }
+        halfEdgeEdge[hj] = edge;
+        edgeCells[2 * edge + 1] = halfCell[hj]!;
+        edgeLocal[2 * edge + 1] = hj - off[halfCell[hj]!]!;
+      }
+    }
+  }
+  return {
+    nEdges: ne,
+    edgeNodes: edgeNodes.subarray(0, 2 * ne),
+    edgeCells: edgeCells.subarray(0, 2 * ne),
+    edgeLocal: edgeLocal.subarray(0, 2 * ne),
+    halfEdgeEdge,
+  };
+}
