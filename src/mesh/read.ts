@@ -33,7 +33,7 @@ export function sniffFormat(bytes: Uint8Array, name: string): FormatId {
   while (p < bytes.length && (bytes[p] === 32 || bytes[p] === 9 || bytes[p] === 10 || bytes[p] === 13)) p++;
   if (startsWith(bytes, p, '<?xml') || startsWith(bytes, p, '<VTKFile') || startsWith(bytes, p, '<!--')) return 'vtk-xml';
   if (startsWith(bytes, p, '# vtk DataFile') || startsWith(bytes, p, '#vtk DataFile')) return 'vtk-legacy';
-  if (startsWith(bytes, p, '$MeshFormat')) return 'msh';
+  if (startsWith(bytes, p, '$MeshFormat') || startsWith(bytes, p, '$NOD')) return 'msh';
   const ext = extension(name);
   if (ext === 'node') return 'triangle-node';
   if (ext === 'ele') return 'triangle-ele';

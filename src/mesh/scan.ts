@@ -178,7 +178,12 @@ export class Scanner {
       const v = scale < 0 ? mant / POW10[-scale]! : mant * POW10[scale]!;
       return neg ? -v : v;
     }
-    const txt = latin1.decode(b.subarray(s, p)).replace(/[dD]/, 'e');
+    // exact but slower: the token as a string (Fortran 'd' exponents become 'e')
+    let txt = '';
+    for (let q = s; q < p; q++) {
+      const ch = b[q]!;
+      txt += String.fromCharCode(ch === 100 || ch === 68 ? 101 : ch);
+    }
     return Number(txt);
   }
 
