@@ -60,6 +60,8 @@ export interface AuditOptions {
   top?: number;
   /** File name for messages and the summary. */
   file?: string;
+  /** Geometry computed elsewhere (e.g. in parallel); must be computeGeometry's result for this mesh. */
+  geometry?: CellGeometry;
 }
 
 export interface WorstCell {
@@ -173,7 +175,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   if (options.dt !== undefined && !(options.dt > 0 && Number.isFinite(options.dt))) throw new UsageError(`--dt must be a positive number of seconds, got ${options.dt}`);
   const model: WaveModel = options.model ?? 'advection';
   const n = mesh.nCells;
-  const geom = computeGeometry(mesh);
+  const geom = options.geometry ?? computeGeometry(mesh);
   const sp = cellSpeeds(mesh, {
     model,
     ...(options.velocity !== undefined ? { velocity: options.velocity } : {}),

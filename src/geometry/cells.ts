@@ -208,8 +208,18 @@ function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by
   g.edgeRatio[i] = lmax / lmin;
 }
 
-/** Compute geometry for every cell of the mesh. */
-export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh.nCells), from = 0, to = mesh.nCells): CellGeometry {
+/** Compute geometry for every cell of the mesh, then mark inverted cells. */
+export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh.nCells)): CellGeometry {
+  computeCellRange(mesh, g, 0, mesh.nCells);
+  markInverted(g);
+  return g;
+}
+
+/**
+ * The per-cell kernels for cells [from, to): independent per cell, so ranges may run in
+ * parallel; `markInverted` must follow once every range is done.
+ */
+export function computeCellRange(mesh: Mesh, g: CellGeometry, from: number, to: number): void {
   const pts = mesh.points;
   const off = mesh.cellOffsets;
   const nodes = mesh.cellNodes;
@@ -231,20 +241,19 @@ export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh
       triangle(g, i, ox, oy, bx, by, cx, cy, rep);
     }
   }
-  markInverted(g, from, to);
-  return g;
 }
 
 /** Inverted = orientation opposite to the majority of non-degenerate cells. */
-function markInverted(g: CellGeometry, from: number, to: number): void {
+export function markInverted(g: CellGeometry): void {
+  const n = g.flags.length;
   let pos = 0, neg = 0;
-  for (let i = from; i < to; i++) {
+  for (let i = 0; i < n; i++) {
     if (g.flags[i]! & FLAG_DEGENERATE) continue;
     if (g.signedArea[i]! > 0) pos++; else neg++;
   }
   const orient = neg > pos ? -1 : 1;
   g.orientation = orient;
-  for (let i = from; i < to; i++) {
+  for (let i = 0; i < n; i++) {
     if (g.flags[i]! & FLAG_DEGENERATE) continue;
     if (g.signedArea[i]! * orient < 0) g.flags[i] |= FLAG_INVERTED;
   }
