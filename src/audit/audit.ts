@@ -11,6 +11,8 @@ import { computeGeometry, FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_R
 import { cellScalar, cellSpeeds, STANDARD_GRAVITY, type WaveModel } from '../physics/speed.js';
 import { buildEdges } from '../geometry/edges.js';
 import { diffusionLimit, fluxLimit } from '../physics/faces.js';
+import { looksGeographic, type CoordinateSystem } from '../geometry/geographic.js';
+import { lengthFactor, velocityFactor } from '../physics/units.js';
 import { quantileSorted, smallestK, sortedFinite } from './stats.js';
 
 export const CAUSE_SMALL = 1;
@@ -60,6 +62,12 @@ export interface AuditOptions {
   top?: number;
   /** File name for messages and the summary. */
   file?: string;
+  /** planar (default) or geographic (x = longitude, y = latitude, degrees). */
+  coords?: CoordinateSystem;
+  /** Unit of planar coordinates and of the depth array: m (default), km, ft. */
+  lengthUnit?: string;
+  /** Unit of the velocity (and of an array sound speed): m/s (default), km/h, kn, ft/s. */
+  velocityUnit?: string;
   /** Geometry computed elsewhere (e.g. in parallel); must be computeGeometry's result for this mesh. */
   geometry?: CellGeometry;
 }
@@ -81,7 +89,8 @@ export interface WorstCell {
 export interface AuditSummary {
   steplens: string;
   file: string | null;
-  units: { length: 'm'; time: 's'; speed: 'm/s' };
+  units: { length: 'm'; time: 's'; speed: 'm/s'; area: 'm2'; coordinates: 'm' | 'degrees' };
+  input: { coords: CoordinateSystem; length_unit: string; velocity_unit: string };
   mesh: { cells: number; points: number; types: { triangle: number; quad: number }; format: string };
   model: { name: WaveModel; velocity: string | null; depth: string | null; gravity: number | null; sound_speed: string | null; diffusivity: string | null; diffusion_scale: number | null };
   limit: { dt: number | null; cell: number | null; courant: number; courant_source: string; centroid: [number, number] | null; cause: string[]; why: string | null; length: LengthRule; parts: Record<string, { dt: number | null; cell: number | null }> };
@@ -174,8 +183,19 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   if (!Number.isInteger(top) || top < 0) throw new UsageError(`--top must be a non-negative integer, got ${top}`);
   if (options.dt !== undefined && !(options.dt > 0 && Number.isFinite(options.dt))) throw new UsageError(`--dt must be a positive number of seconds, got ${options.dt}`);
   const model: WaveModel = options.model ?? 'advection';
+  const coords: CoordinateSystem = options.coords ?? 'planar';
+  if (coords !== 'planar' && coords !== 'geographic') throw new UsageError(`--coords must be planar or geographic; got "${String(coords)}"`);
+  const lf = lengthFactor(options.lengthUnit);
+  const vf = velocityFactor(options.velocityUnit);
+  if (coords === 'geographic' && options.lengthUnit !== undefined && lf !== 1) throw new UsageError('--length-unit applies to planar coordinates; geographic coordinates are in degrees');
+  if (lf !== 1) {
+    const pts = new Float64Array(mesh.points.length);
+    for (let i = 0; i < pts.length; i++) pts[i] = mesh.points[i]! * lf;
+    mesh = { ...mesh, points: pts };
+  }
   const n = mesh.nCells;
-  const geom = options.geometry ?? computeGeometry(mesh);
+  const geographic = coords === 'geographic';
+  const geom = options.geometry ?? computeGeometry(mesh, undefined, coords);
   const sp = cellSpeeds(mesh, {
     model,
     ...(options.velocity !== undefined ? { velocity: options.velocity } : {}),
@@ -183,6 +203,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
     ...(options.gravity !== undefined ? { gravity: options.gravity } : {}),
     ...(options.soundSpeed !== undefined ? { soundSpeed: options.soundSpeed } : {}),
     ...(options.file !== undefined ? { file: options.file } : {}),
+    velocityScale: vf,
+    depthScale: lf,
   });
   const speed = sp.speed;
   const h = geom.inradius;
@@ -196,7 +218,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   }
   const lengthRule: LengthRule = options.length ?? 'inscribed';
   if (lengthRule !== 'inscribed' && lengthRule !== 'flux') throw new UsageError(`--length must be inscribed or flux, got "${String(lengthRule)}"`);
-  const dtFlux = lengthRule === 'flux' ? fluxLimit(mesh, geom, sp.velocity, sp.wave, C) : null;
+  const dtFlux = lengthRule === 'flux' ? fluxLimit(mesh, geom, sp.velocity, sp.wave, C, geographic) : null;
   let dtDiffusion: Float64Array | null = null;
   let diffusivitySource: string | null = null;
   const D = options.diffusionScale ?? 1;
@@ -204,7 +226,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
     if (!(D > 0) || !Number.isFinite(D)) throw new UsageError(`the diffusion scale must be positive, got ${D}`);
     const nu = cellScalar(mesh, options.diffusivity, 'the diffusivity', options.file);
     diffusivitySource = nu.source;
-    dtDiffusion = diffusionLimit(mesh, geom, buildEdges(mesh, options.file), nu.values, D);
+    dtDiffusion = diffusionLimit(mesh, geom, buildEdges(mesh, options.file), nu.values, D, geographic);
   }
   const dtAdvective = dtFlux ?? dtInscribed;
   let dt = dtAdvective;
@@ -322,6 +344,9 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   }
 
   const warnings = [...mesh.warnings, ...sp.warnings];
+  if (options.coords === undefined && looksGeographic(mesh.points, medL)) {
+    warnings.push('coordinates look like degrees of longitude/latitude; pass --coords geographic or --coords planar');
+  }
   if (counts.degenerate > 0) warnings.push(`${counts.degenerate} degenerate cell(s) (zero area or a repeated node): their step is 0 and they cap the run until fixed`);
   if (counts.inverted > 0) warnings.push(`${counts.inverted} cell(s) are inverted (node order opposite to the rest of the mesh)`);
   if (counts.non_convex > 0) warnings.push(`${counts.non_convex} quad(s) are non-convex or self-intersecting`);
@@ -332,7 +357,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const summary: AuditSummary = {
     steplens: VERSION,
     file: options.file ?? null,
-    units: { length: 'm', time: 's', speed: 'm/s' },
+    units: { length: 'm', time: 's', speed: 'm/s', area: 'm2', coordinates: geographic ? 'degrees' : 'm' },
+    input: { coords, length_unit: options.lengthUnit ?? 'm', velocity_unit: options.velocityUnit ?? 'm/s' },
     mesh: { cells: n, points: mesh.nPoints, types: { triangle: nTri, quad: nQuad }, format: mesh.format },
     model: {
       name: model,

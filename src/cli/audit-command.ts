@@ -25,6 +25,11 @@ physics
   --gravity G           m/s² (default 9.80665)
   --sound-speed NAME|V  sound speed array or value in m/s (acoustic)
   --courant C           Courant number the scheme tolerates (default 1)
+  --coords SYSTEM       planar (default) or geographic (x = longitude, y = latitude in
+                        degrees; each cell projected on its local tangent plane)
+  --length-unit U       unit of planar coordinates and of the depth: m (default), km, ft
+  --velocity-unit U     unit of the velocity: m/s (default), km/h, kn, ft/s
+                        (outputs are always SI: m, s, m/s)
   --dt X                the step the run intends to use: Courant numbers at X
   --length RULE         inscribed (h = 2A/P, default) or flux (exact face-flux limit of
                         cell-centred finite volume: C·A / Σ max(u·n, 0)|f|)
@@ -46,7 +51,8 @@ const SPEC: OptionSpec = {
   'sound-speed': { type: 'string' }, courant: { type: 'string' }, dt: { type: 'string' }, json: { type: 'boolean' },
   cells: { type: 'string' }, vtu: { type: 'string' }, top: { type: 'string' }, 'fail-below': { type: 'string' },
   debug: { type: 'boolean' }, help: { type: 'boolean', short: 'h' }, length: { type: 'string' },
-  diffusivity: { type: 'string' },
+  diffusivity: { type: 'string' }, coords: { type: 'string' }, 'length-unit': { type: 'string' },
+  'velocity-unit': { type: 'string' },
 };
 
 export function auditOptionsFrom(values: Record<string, unknown>, file: string): AuditOptions {
@@ -82,6 +88,13 @@ export function auditOptionsFrom(values: Record<string, unknown>, file: string):
     const x = Number(s);
     o.diffusivity = s.trim() !== '' && Number.isFinite(x) ? x : s;
   }
+  if (values.coords !== undefined) {
+    const cs = String(values.coords);
+    if (cs !== 'planar' && cs !== 'geographic') throw new UsageError(`--coords must be planar or geographic; got "${cs}"`);
+    o.coords = cs;
+  }
+  if (values['length-unit'] !== undefined) o.lengthUnit = String(values['length-unit']);
+  if (values['velocity-unit'] !== undefined) o.velocityUnit = String(values['velocity-unit']);
   const c = numberOption(values.courant, 'courant');
   if (c !== undefined) o.courant = c;
   const dt = numberOption(values.dt, 'dt');

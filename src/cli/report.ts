@@ -25,6 +25,8 @@ export function renderReport(s: AuditSummary): string {
   if (s.model.velocity) push(`            velocity: ${s.model.velocity}`);
   if (s.model.depth) push(`            depth: ${s.model.depth}`);
   if (s.model.sound_speed) push(`            sound speed: ${s.model.sound_speed}`);
+  if (s.input.coords === 'geographic') push('  coords    longitude/latitude in degrees; lengths on the local tangent plane of each cell (R = 6 371 008.8 m)');
+  if (s.input.length_unit !== 'm' || s.input.velocity_unit !== 'm/s') push(`  units     input lengths in ${s.input.length_unit}, velocities in ${s.input.velocity_unit}; results in SI`);
   push(`  Courant   C = ${formatNumber(s.limit.courant, 6)} (${s.limit.courant_source})`);
   push(s.limit.length === 'flux'
     ? '  step      dt = C·A / Σ max(u·n, 0)|f| per cell (exact face flux; inscribed length shown beside it)'
@@ -36,7 +38,8 @@ export function renderReport(s: AuditSummary): string {
   } else {
     const c = s.limit.centroid;
     push(`LARGEST STABLE STEP  ${formatSeconds(s.limit.dt)}  (${s.limit.dt} s)`);
-    push(`  set by cell ${s.limit.cell} at x = ${c ? formatNumber(c[0], 10) : '?'}, y = ${c ? formatNumber(c[1], 10) : '?'}`);
+    const xy = s.input.coords === 'geographic' ? ['lon', 'lat'] : ['x', 'y'];
+    push(`  set by cell ${s.limit.cell} at ${xy[0]} = ${c ? formatNumber(c[0], 10) : '?'}, ${xy[1]} = ${c ? formatNumber(c[1], 10) : '?'}`);
     if (s.limit.why) push(`  because   ${s.limit.why}`);
     const parts = Object.entries(s.limit.parts).filter(([k]) => k !== 'advective');
     if (parts.length > 1) {

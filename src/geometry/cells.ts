@@ -8,6 +8,7 @@
  * √(ΣLᵢ²)·h_max / (4√2·min Aᵢ) (Aᵢ: the four corner-triangle areas) as the library does.
  */
 import { QUAD, type Mesh } from '../mesh/model.js';
+import { DEG, inverseOrthographic, orthographic, projected, wrapLongitude, type CoordinateSystem } from './geographic.js';
 
 export const FLAG_DEGENERATE = 1;
 export const FLAG_INVERTED = 2;
@@ -209,8 +210,9 @@ function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by
 }
 
 /** Compute geometry for every cell of the mesh, then mark inverted cells. */
-export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh.nCells)): CellGeometry {
-  computeCellRange(mesh, g, 0, mesh.nCells);
+export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh.nCells), coords: CoordinateSystem = 'planar'): CellGeometry {
+  if (coords === 'geographic') computeGeographicRange(mesh, g, 0, mesh.nCells);
+  else computeCellRange(mesh, g, 0, mesh.nCells);
   markInverted(g);
   return g;
 }
@@ -240,6 +242,44 @@ export function computeCellRange(mesh: Mesh, g: CellGeometry, from: number, to: 
       const rep = na === nb || na === nc || nb === nc;
       triangle(g, i, ox, oy, bx, by, cx, cy, rep);
     }
+  }
+}
+
+/**
+ * Longitude/latitude cells: each projected onto the plane tangent at its vertex mean
+ * (src/geometry/geographic.ts); lengths in metres, areas in m², centroids back in degrees.
+ */
+export function computeGeographicRange(mesh: Mesh, g: CellGeometry, from: number, to: number): void {
+  const pts = mesh.points;
+  const off = mesh.cellOffsets;
+  const nodes = mesh.cellNodes;
+  const types = mesh.cellTypes;
+  for (let i = from; i < to; i++) {
+    const s = off[i]!;
+    const quadCell = types[i] === QUAD;
+    const na = nodes[s]!, nb = nodes[s + 1]!, nc = nodes[s + 2]!, nd = quadCell ? nodes[s + 3]! : na;
+    const lonA = pts[2 * na]!;
+    const k = quadCell ? 4 : 3;
+    const lon0 = lonA + (wrapLongitude(pts[2 * nb]! - lonA) + wrapLongitude(pts[2 * nc]! - lonA) + (quadCell ? wrapLongitude(pts[2 * nd]! - lonA) : 0)) / k;
+    const lat0 = (pts[2 * na + 1]! + pts[2 * nb + 1]! + pts[2 * nc + 1]! + (quadCell ? pts[2 * nd + 1]! : 0)) / k;
+    const s0 = Math.sin(lat0 * DEG);
+    orthographic(lonA, pts[2 * na + 1]!, lon0, lat0, s0);
+    const ax = projected.x, ay = projected.y;
+    orthographic(pts[2 * nb]!, pts[2 * nb + 1]!, lon0, lat0, s0);
+    const bx = projected.x - ax, by = projected.y - ay;
+    orthographic(pts[2 * nc]!, pts[2 * nc + 1]!, lon0, lat0, s0);
+    const cx = projected.x - ax, cy = projected.y - ay;
+    g.flags[i] = 0;
+    if (quadCell) {
+      orthographic(pts[2 * nd]!, pts[2 * nd + 1]!, lon0, lat0, s0);
+      const rep = na === nb || na === nc || na === nd || nb === nc || nb === nd || nc === nd;
+      quad(g, i, ax, ay, bx, by, cx, cy, projected.x - ax, projected.y - ay, rep);
+    } else {
+      triangle(g, i, ax, ay, bx, by, cx, cy, na === nb || na === nc || nb === nc);
+    }
+    inverseOrthographic(g.centroidX[i]!, g.centroidY[i]!, lon0, lat0);
+    g.centroidX[i] = projected.x;
+    g.centroidY[i] = projected.y;
   }
 }
 

@@ -21,8 +21,10 @@ import { FLAG_DEGENERATE } from '../geometry/cells.js';
 import type { EdgeTopology } from '../geometry/edges.js';
 import type { Mesh } from '../mesh/model.js';
 import type { VelocityField, WaveTerm } from './speed.js';
+import { greatCircle, orthographic, projected, DEG } from '../geometry/geographic.js';
 
-export function fluxLimit(mesh: Mesh, geom: CellGeometry, vel: VelocityField | null, wave: WaveTerm | null, C: number): Float64Array {
+/** `geographic`: points are longitude/latitude; edges are projected at the cell's centroid latitude. */
+export function fluxLimit(mesh: Mesh, geom: CellGeometry, vel: VelocityField | null, wave: WaveTerm | null, C: number, geographic = false): Float64Array {
   const n = mesh.nCells;
   const off = mesh.cellOffsets, nodes = mesh.cellNodes, pts = mesh.points;
   const out = new Float64Array(n);
@@ -37,10 +39,18 @@ export function fluxLimit(mesh: Mesh, geom: CellGeometry, vel: VelocityField | n
     // outward normal × length of edge a→b is s·(ey, −ex), s = orientation of the cell
     const s = geom.signedArea[i]! < 0 ? -1 : 1;
     const b0 = off[i]!, e0 = off[i + 1]!;
+    const lon0 = geom.centroidX[i]!, lat0 = geom.centroidY[i]!, s0 = Math.sin(lat0 * DEG);
     let sum = 0;
     for (let k = b0; k < e0; k++) {
       const a = nodes[k]!, b = nodes[k + 1 < e0 ? k + 1 : b0]!;
-      const ex = pts[2 * b]! - pts[2 * a]!, ey = pts[2 * b + 1]! - pts[2 * a + 1]!;
+      let ex = pts[2 * b]! - pts[2 * a]!, ey = pts[2 * b + 1]! - pts[2 * a + 1]!;
+      if (geographic) {
+        orthographic(pts[2 * a]!, pts[2 * a + 1]!, lon0, lat0, s0);
+        const px = projected.x, py = projected.y;
+        orthographic(pts[2 * b]!, pts[2 * b + 1]!, lon0, lat0, s0);
+        ex = projected.x - px;
+        ey = projected.y - py;
+      }
       const nx = s * ey, ny = -s * ex;
       let ux = 0, uy = 0;
       if (vx && vy) {
@@ -60,7 +70,7 @@ export function fluxLimit(mesh: Mesh, geom: CellGeometry, vel: VelocityField | n
 }
 
 /** Per-cell diffusivity ν ≥ 0 (already reduced to cells). */
-export function diffusionLimit(mesh: Mesh, geom: CellGeometry, edges: EdgeTopology, nu: Float64Array, D: number): Float64Array {
+export function diffusionLimit(mesh: Mesh, geom: CellGeometry, edges: EdgeTopology, nu: Float64Array, D: number, geographic = false): Float64Array {
   const n = mesh.nCells;
   const pts = mesh.points;
   const sum = new Float64Array(n);
@@ -69,16 +79,26 @@ export function diffusionLimit(mesh: Mesh, geom: CellGeometry, edges: EdgeTopolo
   const cx = geom.centroidX, cy = geom.centroidY;
   for (let e = 0; e < nEdges; e++) {
     const p = edgeNodes[2 * e]!, q = edgeNodes[2 * e + 1]!;
-    const ax = pts[2 * p]!, ay = pts[2 * p + 1]!;
-    const fx = pts[2 * q]! - ax, fy = pts[2 * q + 1]! - ay;
-    const len = Math.hypot(fx, fy);
+    let ax = pts[2 * p]!, ay = pts[2 * p + 1]!;
+    let fx = pts[2 * q]! - ax, fy = pts[2 * q + 1]! - ay;
     const c0 = edgeCells[2 * e]!, c1 = edgeCells[2 * e + 1]!;
+    let px = cx[c0]!, py = cy[c0]!;
+    if (geographic) {
+      // every vector on the plane tangent at the centroid of c0 (second-order accurate)
+      const s0 = Math.sin(py * DEG);
+      orthographic(pts[2 * p]!, pts[2 * p + 1]!, px, py, s0);
+      const x0 = projected.x, y0 = projected.y;
+      orthographic(pts[2 * q]!, pts[2 * q + 1]!, px, py, s0);
+      fx = projected.x - x0; fy = projected.y - y0;
+      ax = x0; ay = y0; px = 0; py = 0;
+    }
+    const len = Math.hypot(fx, fy);
     if (c1 >= 0) {
-      const d = Math.hypot(cx[c1]! - cx[c0]!, cy[c1]! - cy[c0]!);
+      const d = geographic ? greatCircle(cx[c0]!, cy[c0]!, cx[c1]!, cy[c1]!) : Math.hypot(cx[c1]! - cx[c0]!, cy[c1]! - cy[c0]!);
       if (d > 0) { sum[c0]! += (nu[c0]! * len) / d; sum[c1]! += (nu[c1]! * len) / d; } else { bad[c0] = 1; bad[c1] = 1; }
     } else {
       // twice the distance from the centroid to the line of the face
-      const d = len > 0 ? (2 * Math.abs((cx[c0]! - ax) * fy - (cy[c0]! - ay) * fx)) / len : 0;
+      const d = len > 0 ? (2 * Math.abs((px - ax) * fy - (py - ay) * fx)) / len : 0;
       if (d > 0) sum[c0]! += (nu[c0]! * len) / d; else bad[c0] = 1;
     }
   }

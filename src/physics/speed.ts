@@ -27,6 +27,10 @@ export interface SpeedOptions {
   soundSpeed?: string | number;
   /** File name for error messages. */
   file?: string;
+  /** Factor to m/s applied to the velocity (and an array sound speed). */
+  velocityScale?: number;
+  /** Factor to m applied to the depth array. */
+  depthScale?: number;
 }
 
 export interface SpeedResult {
@@ -167,8 +171,9 @@ export function waveTerm(mesh: Mesh, opts: SpeedOptions, model: WaveModel): Wave
     const h = loc.array.values;
     const term = new Float64Array(h.length);
     const wet = new Uint8Array(h.length);
+    const ds = opts.depthScale ?? 1;
     for (let i = 0; i < h.length; i++) {
-      const d = h[i]!;
+      const d = h[i]! * ds;
       if (d > 0) { term[i] = Math.sqrt(g * d); wet[i] = 1; }
     }
     return { term, onPoints: loc.onPoints, source: `${opts.depth} (${loc.onPoints ? 'point' : 'cell'} data), g = ${g} m/s²`, wet };
@@ -185,7 +190,7 @@ export function waveTerm(mesh: Mesh, opts: SpeedOptions, model: WaveModel): Wave
     const term = new Float64Array(v.length);
     for (let i = 0; i < v.length; i++) {
       if (v[i]! < 0) throw new MeshInputError(`sound speed "${c}" is negative (${v[i]}) at tuple ${i}`, opts.file === undefined ? {} : { file: opts.file });
-      term[i] = v[i]!;
+      term[i] = v[i]! * (opts.velocityScale ?? 1);
     }
     return { term, onPoints: loc.onPoints, source: `${c} (${loc.onPoints ? 'point' : 'cell'} data)`, wet: null };
   }
@@ -218,6 +223,10 @@ export function cellSpeeds(mesh: Mesh, opts: SpeedOptions = {}): SpeedResult {
   if (!WAVE_MODELS.includes(model)) throw new UsageError(`unknown model "${model}"; use one of ${WAVE_MODELS.join(', ')}`);
   const warnings: string[] = [];
   const field = velocityField(mesh, opts, warnings);
+  const vs = opts.velocityScale ?? 1;
+  if (field && vs !== 1) {
+    for (let i = 0; i < field.vx.length; i++) { field.vx[i] = field.vx[i]! * vs; field.vy[i] = field.vy[i]! * vs; }
+  }
   const vel = field ? { mag: magnitude(field), onPoints: field.onPoints, source: field.source } : null;
   if (!vel && model === 'advection') {
     throw new UsageError(`no velocity array found (tried ${VELOCITY_NAMES.join(', ')}); pass --velocity NAME or --velocity X,Y; arrays in the file: ${listArrays(mesh)}`);

@@ -53,7 +53,7 @@ describe('steplens audit (process)', () => {
     expect(j.limit.cell).toBe(0);
     expect(j.limit.courant).toBe(1);
     expect(j.worst.map((w: { cell: number }) => w.cell)).toEqual([0, 1]);
-    expect(j.units).toEqual({ length: 'm', time: 's', speed: 'm/s' });
+    expect(j.units).toMatchObject({ length: 'm', time: 's', speed: 'm/s', coordinates: 'm' });
   });
 
   it('--cells and --vtu: the CSV contract and a VTU that reads back with the results', () => {
