@@ -2,15 +2,19 @@
 import { SteplensError } from '../mesh/errors.js';
 import { VERSION } from '../audit/audit.js';
 import { auditCommand } from './audit-command.js';
+import { schemeCommand } from './scheme-command.js';
+import { readInput } from './files.js';
+import * as fs from 'node:fs';
 import type { CliIo } from './io.js';
 
 const HELP = `steplens ${VERSION} — largest stable explicit time step of a 2-D unstructured mesh
 
 usage
   steplens audit FILE [options]     per-cell step limits, the cells that cap the run, tables
+  steplens scheme --time T --space S  the largest stable Courant number of a scheme
   steplens --help | --version
 
-Run "steplens audit --help" for the options.
+Run "steplens audit --help" or "steplens scheme --help" for the options.
 exit codes: 0 ok, 2 bad usage or unreadable file, 3 limit below --fail-below, 1 internal error
 `;
 
@@ -46,6 +50,13 @@ export async function main(argv: string[], io: CliIo = nodeIo()): Promise<number
         return 0;
       case 'audit':
         return await auditCommand(rest, io);
+      case 'scheme':
+        return await schemeCommand(rest, {
+          stdout: io.stdout,
+          stderr: io.stderr,
+          readFile: (p) => readInput(p),
+          writeFile: (p, d) => fs.writeFileSync(p, d),
+        });
       default:
         io.stderr(`steplens: unknown command "${cmd}"; try steplens --help\n`);
         return 2;
