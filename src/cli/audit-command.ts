@@ -1,14 +1,19 @@
 /** `steplens audit FILE [options]` */
 import { readMesh } from '../mesh/read.js';
+import type { DataArray } from '../mesh/model.js';
 import { runAudit, type AuditOptions, type AuditResult } from '../audit/audit.js';
 import { UsageError } from '../mesh/errors.js';
 import { WAVE_MODELS, type WaveModel } from '../physics/speed.js';
 import { cellsCsvChunks } from '../io/csv.js';
-import { summaryJson } from '../io/summary.js';
+import { toJson } from '../io/format.js';
 import { writeVtu } from '../io/vtu.js';
 import { parse, numberOption, type OptionSpec } from './args.js';
+import { analyseScheme, builtInTableau, parseTableau, TIME_INTEGRATORS, type Tableau } from '../stability/index.js';
 import { readInput, siblingLoader, writeOutput, writeText, writeBytes } from './files.js';
 import { renderReport } from './report.js';
+import { buildPlan, checkPlanOptions, type Plan, type PlanOptions } from '../audit/plan.js';
+import { sizeFieldCsvChunks } from '../audit/sizefield.js';
+import { isSnapshotInput, snapshotAudit } from './snapshots.js';
 import type { CliIo } from './io.js';
 
 export const AUDIT_HELP = `steplens audit FILE [options]
@@ -25,6 +30,9 @@ physics
   --gravity G           m/s² (default 9.80665)
   --sound-speed NAME|V  sound speed array or value in m/s (acoustic)
   --courant C           Courant number the scheme tolerates (default 1)
+  --time NAME|FILE.json time integrator (see steplens scheme --list) ┐ C from von Neumann
+  --space NAME          space operator                               ┘ analysis; --courant
+                        still overrides; --time also scales the diffusive limit
   --coords SYSTEM       planar (default) or geographic (x = longitude, y = latitude in
                         degrees; each cell projected on its local tangent plane)
   --length-unit U       unit of planar coordinates and of the depth: m (default), km, ft
@@ -41,7 +49,23 @@ outputs
   --vtu FILE.vtu        the mesh with every per-cell result as cell data
   --top N               number of worst cells listed (default 10)
   --fail-below DT       exit 3 when the largest stable step is below DT seconds
+  --safety S            with several files (a run): step schedule = S × limit (default 0.9)
   --debug               show stack traces of unexpected errors
+decision
+  --gains F,F,...       remeshing table: how many worst cells must stop limiting the step
+                        for each gain (default 1.5,2,4,10); regions of those cells
+  --target-dt T         size field for the step T: per cell h* = T·λ/C and the edge 2√3·h*
+                        of the equilateral triangle (--cells, --vtu)
+  --size-field FILE.csv node,x,y,size for a mesher's background field (needs --target-dt):
+                        size = max(largest target edge of the node's cells, current edge)
+  --lts                 local time stepping: level ℓ = ⌊log₂(dt/dt_min)⌋ per cell, cells
+                        sharing an edge at most one level apart; speed-up
+  --lts-levels L        highest level (default 4; implies --lts)
+  --duration T          simulated seconds: steps and cell updates, global and local
+  --cell-step-cost S    measured seconds per cell update of your solver: wall times
+  --courant-min CMIN    with --dt: the moving cells whose Courant number is below CMIN
+  --suggest-dt          with --courant-min: the step range keeping Courant numbers in [CMIN, C]
+  --band-share S        share of moving cells that range keeps in the band (default 1)
 
 A stable step is necessary, not sufficient, for a correct simulation.
 `;
@@ -52,8 +76,32 @@ const SPEC: OptionSpec = {
   cells: { type: 'string' }, vtu: { type: 'string' }, top: { type: 'string' }, 'fail-below': { type: 'string' },
   debug: { type: 'boolean' }, help: { type: 'boolean', short: 'h' }, length: { type: 'string' },
   diffusivity: { type: 'string' }, coords: { type: 'string' }, 'length-unit': { type: 'string' },
-  'velocity-unit': { type: 'string' },
+  'velocity-unit': { type: 'string' }, time: { type: 'string' }, space: { type: 'string' },
+  gains: { type: 'string' }, 'target-dt': { type: 'string' }, 'size-field': { type: 'string' }, lts: { type: 'boolean' },
+  'lts-levels': { type: 'string' }, duration: { type: 'string' }, 'cell-step-cost': { type: 'string' },
+  'courant-min': { type: 'string' }, 'suggest-dt': { type: 'boolean' }, 'band-share': { type: 'string' }, safety: { type: 'string' },
 };
+
+/** The decision options (remeshing, size field, local time stepping, run cost, Courant band). */
+export function planOptionsFrom(values: Record<string, unknown>): PlanOptions {
+  const o: PlanOptions = {};
+  const num = (flag: string, set: (x: number) => void): void => {
+    const x = numberOption(values[flag], flag);
+    if (x !== undefined) set(x);
+  };
+  if (values.gains !== undefined) o.gains = String(values.gains).split(',').map((g) => numberOption(g, 'gains')!);
+  num('target-dt', (x) => { o.targetDt = x; });
+  if (values.lts) o.lts = true;
+  num('lts-levels', (x) => { o.ltsLevels = x; });
+  num('duration', (x) => { o.duration = x; });
+  num('cell-step-cost', (x) => { o.cellStepCost = x; });
+  num('courant-min', (x) => { o.courantMin = x; });
+  if (values['suggest-dt']) o.suggestDt = true;
+  num('band-share', (x) => { o.bandShare = x; });
+  if (values['size-field'] !== undefined && o.targetDt === undefined) throw new UsageError('--size-field needs --target-dt T: the size field is for a target step');
+  checkPlanOptions(o, values.dt !== undefined);
+  return o;
+}
 
 export function auditOptionsFrom(values: Record<string, unknown>, file: string): AuditOptions {
   const o: AuditOptions = { file };
@@ -96,7 +144,11 @@ export function auditOptionsFrom(values: Record<string, unknown>, file: string):
   if (values['length-unit'] !== undefined) o.lengthUnit = String(values['length-unit']);
   if (values['velocity-unit'] !== undefined) o.velocityUnit = String(values['velocity-unit']);
   const c = numberOption(values.courant, 'courant');
-  if (c !== undefined) o.courant = c;
+  if (values.time !== undefined || values.space !== undefined) applyScheme(o, values, c !== undefined);
+  if (c !== undefined) {
+    o.courant = c;
+    o.courantSource = values.time !== undefined ? `given with --courant (overrides the scheme's ${o.courant})` : 'given with --courant';
+  }
   const dt = numberOption(values.dt, 'dt');
   if (dt !== undefined) o.dt = dt;
   const top = numberOption(values.top, 'top');
@@ -104,15 +156,45 @@ export function auditOptionsFrom(values: Record<string, unknown>, file: string):
   return o;
 }
 
+function loadTableau(arg: string): Tableau | string {
+  if (builtInTableau(arg)) return arg;
+  if (!/\.json$/i.test(arg.trim())) throw new UsageError(`unknown time integrator "${arg}"; known: ${TIME_INTEGRATORS.join(', ')} (or a tableau file ending in .json)`);
+  return parseTableau(new TextDecoder().decode(readInput(arg)), arg);
+}
+
+/** --time/--space: the Courant number and the diffusion scale from von Neumann analysis. */
+function applyScheme(o: AuditOptions, values: Record<string, unknown>, overridden: boolean): void {
+  if (values.time === undefined || values.space === undefined) throw new UsageError('--time and --space go together: the Courant number depends on both');
+  const t = String(values.time), sp = String(values.space);
+  const r = analyseScheme(loadTableau(t), sp);
+  if (r.diffusion > 0) o.diffusionScale = 2 * r.diffusion;
+  if (r.status !== 'stable' || !(r.courant > 0)) {
+    if (overridden) return;
+    throw new UsageError(`${t} × ${sp} is ${r.status === 'unstable' ? 'unstable for every step' : 'weakly unstable (growth at every step size)'}: no Courant number makes it stable; choose another pairing or pass --courant`);
+  }
+  o.courant = Number(r.courant.toPrecision(12));
+  o.courantSource = `von Neumann analysis of ${r.time} × ${r.space}`;
+}
+
 export function loadMesh(file: string) {
   const bytes = readInput(file);
   return readMesh(bytes, file, { loadSibling: siblingLoader });
 }
 
-export function writeResults(r: AuditResult, values: Record<string, unknown>, inputs: string[]): void {
+/** Input arrays whose names our results take are kept as NAME_input. */
+function keepInputArrays(input: DataArray[], ours: DataArray[]): DataArray[] {
+  const taken = new Set(ours.map((a) => a.name));
+  return input.map((a) => (taken.has(a.name) ? { ...a, name: `${a.name}_input` } : a));
+}
+
+export function writeResults(r: AuditResult, values: Record<string, unknown>, inputs: string[], plan?: Plan): void {
   if (values.cells !== undefined) {
     const out = String(values.cells);
-    writeOutput(out, inputs, (fd) => { for (const chunk of cellsCsvChunks(r)) writeText(fd, chunk); });
+    writeOutput(out, inputs, (fd) => { for (const chunk of cellsCsvChunks(r, plan?.cellColumns)) writeText(fd, chunk); });
+  }
+  if (values['size-field'] !== undefined && plan?.nodeSize) {
+    const sizes = plan.nodeSize;
+    writeOutput(String(values['size-field']), inputs, (fd) => { for (const chunk of sizeFieldCsvChunks(r.mesh, sizes)) writeText(fd, chunk); });
   }
   if (values.vtu !== undefined) {
     const out = String(values.vtu);
@@ -132,11 +214,11 @@ export function writeResults(r: AuditResult, values: Record<string, unknown>, in
       { name: 'flags', components: 1, values: Float64Array.from(g.flags) },
       ...(r.courantAtDt ? [{ name: 'courant', components: 1, values: r.courantAtDt }] : []),
       ...r.columns.map((c) => ({ name: c.name, components: 1, values: c.values })),
+      ...(plan?.cellColumns ?? []).map((c) => ({ name: c.name, components: 1, values: c.values instanceof Float64Array ? c.values : Float64Array.from(c.values) })),
     ];
-    const taken = new Set(cellData.map((a) => a.name));
-    const clash = r.mesh.cellData.filter((a) => taken.has(a.name));
-    const mesh = clash.length ? { ...r.mesh, cellData: r.mesh.cellData.map((a) => (taken.has(a.name) ? { ...a, name: `${a.name}_input` } : a)) } : r.mesh;
-    const bytes = writeVtu(mesh, { cellData }, { encoding: 'appended-raw' });
+    const pointData = plan?.pointData ?? [];
+    const mesh = { ...r.mesh, cellData: keepInputArrays(r.mesh.cellData, cellData), pointData: keepInputArrays(r.mesh.pointData, pointData) };
+    const bytes = writeVtu(mesh, { cellData, pointData }, { encoding: 'appended-raw' });
     writeOutput(out, inputs, (fd) => writeBytes(fd, bytes));
   }
 }
@@ -145,18 +227,20 @@ export async function auditCommand(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parse(args, SPEC);
   if (values.help) { io.stdout(AUDIT_HELP); return 0; }
   if (positionals.length === 0) throw new UsageError('audit needs a mesh file: steplens audit FILE [options] (see steplens audit --help)');
-  if (positionals.length > 1) throw new UsageError(`audit takes one mesh file; got ${positionals.length}: ${positionals.join(' ')}`);
+  if (isSnapshotInput(positionals)) return snapshotAudit(positionals, values, io);
   const file = positionals[0]!;
   const failBelow = numberOption(values['fail-below'], 'fail-below');
   const options = auditOptionsFrom(values, file);
+  const planOptions = planOptionsFrom(values);
   io.progress?.(`reading ${file}`);
   const mesh = loadMesh(file);
   io.progress?.(`auditing ${mesh.nCells} cells`);
   const result = runAudit(mesh, options);
-  writeResults(result, values, [file]);
+  const plan = buildPlan(result, planOptions);
+  writeResults(result, values, [file], plan);
   io.progress?.('');
-  if (values.json) io.stdout(summaryJson(result));
-  else io.stdout(renderReport(result.summary));
+  if (values.json) io.stdout(toJson({ ...result.summary, plan: plan.summary }));
+  else io.stdout(renderReport(result.summary, plan.summary));
   if (failBelow !== undefined) {
     const lim = result.summary.limit.dt;
     if (lim !== null && lim < failBelow) {

@@ -3,6 +3,7 @@ import { SteplensError } from '../mesh/errors.js';
 import { VERSION } from '../audit/audit.js';
 import { auditCommand } from './audit-command.js';
 import { schemeCommand } from './scheme-command.js';
+import { probeCommand } from './probe-command.js';
 import { readInput } from './files.js';
 import * as fs from 'node:fs';
 import type { CliIo } from './io.js';
@@ -11,10 +12,12 @@ const HELP = `steplens ${VERSION} — largest stable explicit time step of a 2-D
 
 usage
   steplens audit FILE [options]     per-cell step limits, the cells that cap the run, tables
+  steplens audit A.vtu B.vtu ...    a run: limit per snapshot, envelope, step schedule
   steplens scheme --time T --space S  the largest stable Courant number of a scheme
+  steplens probe FILE [options]     measured stability of the upwind operator (power iteration)
   steplens --help | --version
 
-Run "steplens audit --help" or "steplens scheme --help" for the options.
+Run "steplens audit --help", "steplens scheme --help" or "steplens probe --help" for the options.
 exit codes: 0 ok, 2 bad usage or unreadable file, 3 limit below --fail-below, 1 internal error
 `;
 
@@ -50,6 +53,8 @@ export async function main(argv: string[], io: CliIo = nodeIo()): Promise<number
         return 0;
       case 'audit':
         return await auditCommand(rest, io);
+      case 'probe':
+        return await probeCommand(rest, io);
       case 'scheme':
         return await schemeCommand(rest, {
           stdout: io.stdout,

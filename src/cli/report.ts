@@ -1,5 +1,7 @@
 /** The human report of an audit (our own layout). */
 import type { AuditSummary } from '../audit/audit.js';
+import type { PlanSummary } from '../audit/plan.js';
+import { lpad, pad, renderPlan } from './plan-report.js';
 import { formatCount, formatLength, formatNumber, formatSeconds } from './units.js';
 
 const MODEL_FORMULA: Record<string, string> = {
@@ -8,15 +10,8 @@ const MODEL_FORMULA: Record<string, string> = {
   acoustic: 'acoustic, λ = |u| + c',
 };
 
-function pad(s: string, n: number): string {
-  return s.length >= n ? s : s + ' '.repeat(n - s.length);
-}
 
-function lpad(s: string, n: number): string {
-  return s.length >= n ? s : ' '.repeat(n - s.length) + s;
-}
-
-export function renderReport(s: AuditSummary): string {
+export function renderReport(s: AuditSummary, plan?: PlanSummary): string {
   const out: string[] = [];
   const push = (line = '') => out.push(line);
   push(`steplens ${s.steplens} · ${s.file ?? 'mesh'}`);
@@ -78,6 +73,7 @@ export function renderReport(s: AuditSummary): string {
   push();
   push(`cells  degenerate ${formatCount(c.degenerate)} · inverted ${formatCount(c.inverted)} · non-convex ${formatCount(c.non_convex)} · dry ${formatCount(c.dry)} · no limit ${formatCount(c.unlimited)}`);
   push(`       small ${formatCount(c.small)} · poor shape ${formatCount(c.poor_shape)} · fast flow ${formatCount(c.fast)}  (small: h ≤ ½ median; fast: λ ≥ 2× median)`);
+  if (plan) for (const line of renderPlan(s, plan)) push(line);
   if (s.warnings.length) {
     push();
     push('warnings');

@@ -1,23 +1,13 @@
 /** The CLI run as a process: exit codes, JSON and CSV shape, --fail-below, bad input. */
 import { describe, expect, it, beforeAll } from 'vitest';
-import { spawnSync } from 'node:child_process';
 import * as fs from 'node:fs';
-import * as os from 'node:os';
 import * as path from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { cliTempDir, runCli as run } from '../helpers/cli.js';
 
-const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
-const bin = path.join(root, 'bin/steplens.js');
 let tmp = '';
 
-function run(args: string[]) {
-  const r = spawnSync(process.execPath, [bin, ...args], { cwd: root, encoding: 'utf8', timeout: 60000 });
-  return { code: r.status, out: r.stdout, err: r.stderr };
-}
-
 beforeAll(() => {
-  tmp = fs.mkdtempSync(path.join(os.tmpdir(), 'steplens-cli-'));
-  if (!fs.existsSync(path.join(root, 'dist/cli/main.js'))) throw new Error('run `npm run build:cli` first (npm test does)');
+  tmp = cliTempDir('steplens-cli-');
 });
 
 /** An ASCII legacy VTK file: two unit right triangles and a point velocity (hand-written). */
@@ -106,6 +96,23 @@ describe('steplens audit (process)', () => {
     expect(rn.code).toBe(2);
     expect(rn.err).toMatch(/nan\.vtk: array "velocity" holds NaN at tuple 0/);
     expect(rn.err).not.toMatch(/at .*\.js:/); // no stack trace without --debug
+  });
+
+  it('--time/--space take C from von Neumann analysis; --courant overrides; an unstable pairing is refused', () => {
+    const f = path.join(tmp, 'two.vtk');
+    fs.writeFileSync(f, smallVtk());
+    const j = JSON.parse(run(['audit', f, '--json', '--time', 'rk4', '--space', 'central2']).out);
+    // RK4 with second-order central differences: 2√2 (textbook: RK4's imaginary-axis interval)
+    expect(j.limit.courant).toBeCloseTo(2 * Math.SQRT2, 9);
+    expect(j.limit.courant_source).toMatch(/von Neumann analysis of rk4 × central2/);
+    expect(j.limit.dt).toBeCloseTo((2 * Math.SQRT2) / (2 + Math.SQRT2), 9);
+    const o = JSON.parse(run(['audit', f, '--json', '--time', 'rk4', '--space', 'central2', '--courant', '0.5']).out);
+    expect(o.limit.courant).toBe(0.5);
+    expect(o.limit.courant_source).toMatch(/--courant/);
+    const bad = run(['audit', f, '--time', 'euler', '--space', 'central2']);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/euler × central2 is (weakly )?unstable/);
+    expect(run(['audit', f, '--time', 'rk4']).err).toMatch(/--time and --space go together/);
   });
 
   it('--help and --version', () => {
