@@ -160,6 +160,26 @@ export function subsetCellData(arrays: DataArray[], kept: Int32Array | null): Da
 }
 
 /**
+ * Largest coordinate magnitude read. Cell geometry squares and multiplies coordinate
+ * differences: below ±1e150 these stay under 4e300, far from the float64 limit (about 1.8e308),
+ * while a point at 1e308 makes areas infinite and inscribed lengths NaN.
+ */
+export const MAX_COORDINATE = 1e150;
+
+/** |v| ≤ MAX_COORDINATE (false for NaN and ±Infinity). */
+export function usableCoordinate(v: number): boolean {
+  return v <= MAX_COORDINATE && v >= -MAX_COORDINATE;
+}
+
+/** Why a point with an unusable coordinate is refused, e.g. `point 3 has a non-finite coordinate (NaN, 0)`. */
+export function badPointMessage(point: string, ...coords: number[]): string {
+  const list = coords.join(', ');
+  return coords.every(Number.isFinite)
+    ? `${point} has a coordinate beyond ±${MAX_COORDINATE} (${list}), too large for its cells' geometry to be computed`
+    : `${point} has a non-finite coordinate (${list})`;
+}
+
+/**
  * x,y from coordinates with `dim` components per point (2 or 3). Adds a warning when z varies
  * (the mesh is projected onto the x-y plane).
  */
@@ -173,9 +193,7 @@ export function planarPoints(coords: ArrayLike<number>, nPoints: number, dim: nu
   for (let i = 0; i < nPoints; i++) {
     const x = coords[i * dim]!;
     const y = coords[i * dim + 1]!;
-    if (!Number.isFinite(x) || !Number.isFinite(y)) {
-      throw new MeshInputError(`point ${i} has a non-finite coordinate (${x}, ${y})`, loc);
-    }
+    if (!usableCoordinate(x) || !usableCoordinate(y)) throw new MeshInputError(badPointMessage(`point ${i}`, x, y), loc);
     out[2 * i] = x;
     out[2 * i + 1] = y;
     if (dim > 2) {

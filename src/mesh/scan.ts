@@ -3,6 +3,7 @@
  * with no per-line strings and no split/regex per value. Line numbers are computed only when
  * an error needs one.
  */
+import { decimalToDouble } from './decimal.js';
 import { MeshInputError } from './errors.js';
 
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
@@ -108,7 +109,8 @@ export class Scanner {
 
   /**
    * The next number. Throws a located error naming `what` at a non-number or at the end.
-   * Exact: the fast path is taken only where it is exact (Clinger), otherwise Number() on the token.
+   * Exact: the fast paths are taken only where they are exact (Clinger's for up to 15 digits and
+   * |exponent| ≤ 22; double-double arithmetic for up to 19 digits), otherwise Number() on the token.
    */
   number(what = 'a number'): number {
     this.skipSpace();
@@ -120,7 +122,10 @@ export class Scanner {
     let neg = false;
     let c = b[p]!;
     if (c === 45) { neg = true; p++; } else if (c === 43) p++;
+    // significant digits: the first 15 in mant, up to 4 more in low (nLow of them)
     let mant = 0;
+    let low = 0;
+    let nLow = 0;
     let digits = 0;
     let scale = 0;
     let any = false;
@@ -128,7 +133,7 @@ export class Scanner {
     while (p < e) {
       const d = b[p]! - 48;
       if (d >= 0 && d <= 9) {
-        if (digits < 15) { mant = mant * 10 + d; if (mant !== 0) digits++; } else { scale++; slow = true; }
+        if (digits < 15) { mant = mant * 10 + d; if (mant !== 0) digits++; } else if (digits < 19) { low = low * 10 + d; nLow++; digits++; } else { scale++; slow = true; }
         any = true;
         p++;
       } else break;
@@ -138,7 +143,7 @@ export class Scanner {
       while (p < e) {
         const d = b[p]! - 48;
         if (d >= 0 && d <= 9) {
-          if (digits < 15) { mant = mant * 10 + d; if (mant !== 0) digits++; scale--; } else slow = true;
+          if (digits < 15) { mant = mant * 10 + d; if (mant !== 0) digits++; scale--; } else if (digits < 19) { low = low * 10 + d; nLow++; digits++; scale--; } else slow = true;
           any = true;
           p++;
         } else break;
@@ -174,9 +179,14 @@ export class Scanner {
       return v;
     }
     this.pos = p;
-    if (!slow && scale >= -22 && scale <= 22) {
+    if (!slow && nLow === 0 && scale >= -22 && scale <= 22) {
       const v = scale < 0 ? mant / POW10[-scale]! : mant * POW10[scale]!;
       return neg ? -v : v;
+    }
+    if (!slow) {
+      // up to 19 digits at any scale, exact in double-double arithmetic unless too close to call
+      const v = decimalToDouble(mant, low, nLow, scale);
+      if (v === v) return neg ? -v : v;
     }
     // exact but slower: the token as a string (Fortran 'd' exponents become 'e')
     let txt = '';
@@ -208,7 +218,8 @@ function parseSpecial(tok: string): number | undefined {
   if (t === 'nan' || t === '-nan' || t === '+nan' || t === 'nan(ind)' || t === '-nan(ind)') return NaN;
   if (t === 'inf' || t === '+inf' || t === 'infinity' || t === '+infinity' || t === '1.#inf') return Infinity;
   if (t === '-inf' || t === '-infinity' || t === '-1.#inf') return -Infinity;
-  // exact forms the fast path leaves out (hex floats are not mesh-file syntax)
-  if (/^[+-]?(\d+\.?\d*|\.\d+)([eEdD][+-]?\d+)?$/.test(t)) return Number(t.replace(/[dD]/, 'e'));
+  // exact forms the fast path leaves out (hex floats are not mesh-file syntax); the pattern has
+  // one way to match each digit, so a long run of digits before garbage fails in linear time
+  if (/^[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eEdD][+-]?\d+)?$/.test(t)) return Number(t.replace(/[dD]/, 'e'));
   return undefined;
 }

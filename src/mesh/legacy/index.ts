@@ -3,7 +3,7 @@
  * the 4.x cell layout and the 5.x OFFSETS/CONNECTIVITY layout.
  */
 import { MeshInputError, type ErrorLocation } from '../errors.js';
-import { assembleMesh, keepSurfaceCells, planarPoints, vtkCellTypeName, type RawCells } from '../cells.js';
+import { assembleMesh, badPointMessage, keepSurfaceCells, planarPoints, usableCoordinate, vtkCellTypeName, type RawCells } from '../cells.js';
 import type { FieldValues, Mesh } from '../model.js';
 import { readAttribute, readFieldBlock, type AttributeSet } from './attributes.js';
 import { readCellBlock, type CellBlock } from './cells.js';
@@ -185,8 +185,8 @@ function assemble(src: LegacySource, body: Body, dataset: Dataset, format: strin
   const nPoints = points.length / 3;
   for (let i = 0; i < points.length; i++) {
     const v = points[i]!;
-    if (!Number.isFinite(v)) {
-      throw new MeshInputError(`point ${Math.floor(i / 3)} has a non-finite coordinate (${v})`, src.valueLocation(body.pointsStart, i, body.pointsSize));
+    if (!usableCoordinate(v)) {
+      throw new MeshInputError(badPointMessage(`point ${Math.floor(i / 3)}`, v), src.valueLocation(body.pointsStart, i, body.pointsSize));
     }
   }
   const xy = planarPoints(points, nPoints, 3, warnings, src.locate(body.pointsStart));

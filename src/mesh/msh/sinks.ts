@@ -2,7 +2,7 @@
  * Where the MSH section parsers put what they read: points (x, y kept, z range noted) and
  * elements (2-D and 3-D ones stored with their VTK id, points and lines only counted).
  */
-import { keepSurfaceCells, type KeptCells } from '../cells.js';
+import { keepSurfaceCells, usableCoordinate, type KeptCells } from '../cells.js';
 import type { ErrorLocation } from '../errors.js';
 import { QUAD, TRIANGLE } from '../model.js';
 import type { Scanner } from '../scan.js';
@@ -21,9 +21,9 @@ export class PointSink {
     this.tags = new Float64Array(n);
   }
 
-  /** False when a coordinate is not finite (the caller reports where). */
+  /** False when a coordinate is not usable (the caller reports where, with badPointMessage). */
   set(i: number, x: number, y: number, z: number): boolean {
-    if (!Number.isFinite(x) || !Number.isFinite(y) || !Number.isFinite(z)) return false;
+    if (!usableCoordinate(x) || !usableCoordinate(y) || !usableCoordinate(z)) return false;
     this.xy[2 * i] = x;
     this.xy[2 * i + 1] = y;
     if (z < this.zmin) this.zmin = z;

@@ -3,6 +3,7 @@
  * (int32 tag, 3 doubles) records, binary elements come in blocks of int32 values: a header
  * [type, count, number of tags] then per element [tag, tags..., nodes...].
  */
+import { badPointMessage } from '../cells.js';
 import type { Source } from './source.js';
 import type { TagMap } from './tagmap.js';
 import { ElementSink, PointSink, addOrFail, addRecords, atLeastF64, nodeCountOrFail } from './sinks.js';
@@ -25,7 +26,7 @@ export function readNodes2(src: Source): PointSink {
     const x = src.f64('an x coordinate');
     const y = src.f64('a y coordinate');
     const z = src.f64('a z coordinate');
-    if (!pts.set(i, x, y, z)) throw sc.error(`node ${tag} has a non-finite coordinate (${x}, ${y}, ${z})`);
+    if (!pts.set(i, x, y, z)) throw sc.error(badPointMessage(`node ${tag}`, x, y, z));
     pts.tags[i] = tag;
   }
   return pts;

@@ -2,6 +2,7 @@
  * MSH 4.1 $Entities, $Nodes and $Elements. Every value of these sections is binary in binary
  * files: counts and tags are size_t, dimensions, entity tags and types are int.
  */
+import { badPointMessage } from '../cells.js';
 import type { Source } from './source.js';
 import type { TagMap } from './tagmap.js';
 import { ElementSink, PointSink, addRecords, atLeastF64, nodeCountOrFail } from './sinks.js';
@@ -80,7 +81,7 @@ export function readNodes4(src: Source): PointSink {
       for (let e = 0; e < k; e++) {
         const q = e * per;
         if (!pts.set(done + j + e, buf[q]!, buf[q + 1]!, buf[q + 2]!)) {
-          throw sc.error(`node ${pts.tags[done + j + e]} has a non-finite coordinate (${buf[q]}, ${buf[q + 1]}, ${buf[q + 2]})`, src.at(start, e, 8 * per));
+          throw sc.error(badPointMessage(`node ${pts.tags[done + j + e]}`, buf[q]!, buf[q + 1]!, buf[q + 2]!), src.at(start, e, 8 * per));
         }
       }
     }

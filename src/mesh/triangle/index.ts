@@ -52,8 +52,8 @@ function readNodeFile(bytes: Uint8Array, file: string): NodeFile {
   const layout = `index, x, y, ${nAttr} attributes, ${nMark} markers`;
   for (let i = 0; i < n; i++) {
     rows.record(i, n, 'points');
-    xy[2 * i] = rows.finite('the x coordinate');
-    xy[2 * i + 1] = rows.finite('the y coordinate');
+    xy[2 * i] = rows.coordinate('the x coordinate');
+    xy[2 * i + 1] = rows.coordinate('the y coordinate');
     for (let a = 0; a < nAttr; a++) attrs[a]![i] = rows.value(`attribute ${a}`);
     if (marker) marker[i] = rows.int('the boundary marker');
     rows.end(layout);

@@ -2,6 +2,7 @@
  * Row reader for Triangle's .node and .ele files: one record per line, `#` starts a comment
  * anywhere on a line, blank lines anywhere, records numbered consecutively from 0 or 1.
  */
+import { MAX_COORDINATE, usableCoordinate } from '../cells.js';
 import { Scanner } from '../scan.js';
 
 export class Rows {
@@ -37,11 +38,11 @@ export class Rows {
     return this.sc.number(what);
   }
 
-  /** A finite number. */
-  finite(what: string): number {
+  /** A coordinate: finite and within ±MAX_COORDINATE. */
+  coordinate(what: string): number {
     const at = this.sc.pos;
     const v = this.value(what);
-    if (!Number.isFinite(v)) throw this.sc.error(`${what} is ${v}`, at);
+    if (!usableCoordinate(v)) throw this.sc.error(`${what} is ${v}${Number.isFinite(v) ? `, beyond ±${MAX_COORDINATE}` : ''}`, at);
     return v;
   }
 

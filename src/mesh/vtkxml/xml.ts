@@ -67,7 +67,8 @@ function tagEnd(bytes: Uint8Array, lt: number, file: string): number {
   throw new MeshInputError('unexpected end of file inside an XML tag', { file, byteOffset: lt });
 }
 
-function unescapeXml(s: string): string {
+/** Attribute text with entities replaced; a character reference beyond U+10FFFF is malformed (at: the tag). */
+function unescapeXml(s: string, file: string, at: number): string {
   if (s.indexOf('&') < 0) return s;
   return s.replace(/&(lt|gt|amp|quot|apos|#x[0-9a-fA-F]+|#[0-9]+);/g, (_m, e: string) => {
     switch (e) {
@@ -76,7 +77,11 @@ function unescapeXml(s: string): string {
       case 'amp': return '&';
       case 'quot': return '"';
       case 'apos': return "'";
-      default: return String.fromCodePoint(e[1] === 'x' ? parseInt(e.slice(2), 16) : parseInt(e.slice(1), 10));
+      default: {
+        const code = e[1] === 'x' ? parseInt(e.slice(2), 16) : parseInt(e.slice(1), 10);
+        if (!(code <= 0x10ffff)) throw new MeshInputError(`malformed XML: &${e.length > 12 ? e.slice(0, 12) + '…' : e}; is not a Unicode character`, { file, byteOffset: at });
+        return String.fromCodePoint(code);
+      }
     }
   });
 }
@@ -109,7 +114,7 @@ function parseTag(text: string, file: string, at: number): { name: string; attrs
     if (q !== '"' && q !== "'") throw new MeshInputError(`attribute ${key} of <${name}> is not quoted`, { file, byteOffset: at });
     const close = text.indexOf(q, i + 1);
     if (close < 0) throw new MeshInputError(`attribute ${key} of <${name}> is not closed`, { file, byteOffset: at });
-    attrs.set(key, unescapeXml(text.slice(i + 1, close)));
+    attrs.set(key, unescapeXml(text.slice(i + 1, close), file, at));
     i = close + 1;
   }
   return { name, attrs };
