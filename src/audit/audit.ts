@@ -13,6 +13,7 @@ import { buildEdges } from '../geometry/edges.js';
 import { diffusionLimit, fluxLimit } from '../physics/faces.js';
 import { looksGeographic, type CoordinateSystem } from '../geometry/geographic.js';
 import { lengthFactor, velocityFactor } from '../physics/units.js';
+import { meshChecks } from './mesh-checks.js';
 import { quantileSorted, smallestK, sortedFinite } from './stats.js';
 
 export const CAUSE_SMALL = 1;
@@ -98,7 +99,7 @@ export interface AuditSummary {
   quantiles: { min: number | null; p01: number | null; p05: number | null; p25: number | null; median: number | null; p75: number | null; p95: number | null; max: number | null };
   near_limit: { within_2x: number; within_10x: number };
   histogram: { decade: number; from: number; to: number; cells: number }[];
-  counts: { degenerate: number; repeated_node: number; inverted: number; non_convex: number; dry: number; unlimited: number; small: number; poor_shape: number; fast: number; diffusion: number };
+  counts: { degenerate: number; repeated_node: number; inverted: number; non_convex: number; dry: number; unlimited: number; small: number; poor_shape: number; fast: number; diffusion: number; duplicate_points: number; unused_points: number; isolated_cells: number };
   medians: { inradius: number | null; speed: number | null };
   intended: null | { dt: number; ratio_to_limit: number | null; cells_over_courant: number; max_courant: number | null };
   warnings: string[];
@@ -256,7 +257,11 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const medL = quantileSorted(movingSpeeds, 0.5);
 
   const cause = new Uint8Array(n);
-  const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0, diffusion: 0 };
+  const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0, diffusion: 0, duplicate_points: 0, unused_points: 0, isolated_cells: 0 };
+  const checks = meshChecks(mesh);
+  counts.duplicate_points = checks.duplicatePoints;
+  counts.unused_points = checks.unusedPoints;
+  counts.isolated_cells = checks.isolatedCells;
   let nTri = 0, nQuad = 0;
   for (let i = 0; i < n; i++) {
     const f = flags[i]!;
@@ -350,6 +355,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   if (counts.degenerate > 0) warnings.push(`${counts.degenerate} degenerate cell(s) (zero area or a repeated node): their step is 0 and they cap the run until fixed`);
   if (counts.inverted > 0) warnings.push(`${counts.inverted} cell(s) are inverted (node order opposite to the rest of the mesh)`);
   if (counts.non_convex > 0) warnings.push(`${counts.non_convex} quad(s) are non-convex or self-intersecting`);
+  if (counts.duplicate_points > 0) warnings.push(`${counts.duplicate_points} point(s) repeat the coordinates of another point: cells on either side may not be connected`);
+  if (counts.isolated_cells > 0 && n > 1) warnings.push(`${counts.isolated_cells} cell(s) share no edge with any other cell`);
   if (n > 0 && unlimited === n) warnings.push('the flow is at rest everywhere: no cell limits the step');
 
   const q = (p: number) => quantileSorted(sorted, p);

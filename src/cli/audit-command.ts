@@ -176,9 +176,17 @@ function applyScheme(o: AuditOptions, values: Record<string, unknown>, overridde
   o.courantSource = `von Neumann analysis of ${r.time} × ${r.space}`;
 }
 
-export function loadMesh(file: string) {
+/** Read a mesh; every file read for it (the file and a Triangle sibling) is added to `inputs`, which outputs must never overwrite. */
+export function loadMesh(file: string, inputs: string[] = []) {
   const bytes = readInput(file);
-  return readMesh(bytes, file, { loadSibling: siblingLoader });
+  inputs.push(file);
+  return readMesh(bytes, file, {
+    loadSibling: (name) => {
+      const b = siblingLoader(name);
+      if (b) inputs.push(name);
+      return b;
+    },
+  });
 }
 
 /** Input arrays whose names our results take are kept as NAME_input. */
@@ -233,11 +241,12 @@ export async function auditCommand(args: string[], io: CliIo): Promise<number> {
   const options = auditOptionsFrom(values, file);
   const planOptions = planOptionsFrom(values);
   io.progress?.(`reading ${file}`);
-  const mesh = loadMesh(file);
+  const inputs: string[] = [];
+  const mesh = loadMesh(file, inputs);
   io.progress?.(`auditing ${mesh.nCells} cells`);
   const result = runAudit(mesh, options);
   const plan = buildPlan(result, planOptions);
-  writeResults(result, values, [file], plan);
+  writeResults(result, values, inputs, plan);
   io.progress?.('');
   if (values.json) io.stdout(toJson({ ...result.summary, plan: plan.summary }));
   else io.stdout(renderReport(result.summary, plan.summary));

@@ -72,6 +72,7 @@ export function renderReport(s: AuditSummary, plan?: PlanSummary): string {
   const c = s.counts;
   push();
   push(`cells  degenerate ${formatCount(c.degenerate)} · inverted ${formatCount(c.inverted)} · non-convex ${formatCount(c.non_convex)} · dry ${formatCount(c.dry)} · no limit ${formatCount(c.unlimited)}`);
+  push(`       duplicate points ${formatCount(c.duplicate_points)} · unused points ${formatCount(c.unused_points)} · isolated cells ${formatCount(c.isolated_cells)}`);
   push(`       small ${formatCount(c.small)} · poor shape ${formatCount(c.poor_shape)} · fast flow ${formatCount(c.fast)}  (small: h ≤ ½ median; fast: λ ≥ 2× median)`);
   if (plan) for (const line of renderPlan(s, plan)) push(line);
   if (s.warnings.length) {

@@ -110,10 +110,11 @@ export async function snapshotAudit(files: string[], values: Record<string, unkn
   let env: Envelope | null = null;
   const read: SnapshotSummary[] = [];
   const times: (number | null)[] = [];
+  const inputs: string[] = [];
   for (let k = 0; k < list.length; k++) {
     const file = list[k]!;
     io.progress?.(`snapshot ${k + 1} of ${list.length}: reading ${file}`);
-    const mesh = loadMesh(file);
+    const mesh = loadMesh(file, inputs);
     const options = auditOptionsFrom(values, file);
     if (ref && base) {
       checkSameMesh(ref, list[0]!, mesh, file);
@@ -135,7 +136,7 @@ export async function snapshotAudit(files: string[], values: Record<string, unkn
   env!.renumber(rank);
   const snaps = order.order.map((k) => read[k]!);
   const summary = runSummary(base!.summary, snaps, env!, base!, order.by, safety, order.warnings);
-  writeResults(env!.asResult(base!), values, list);
+  writeResults(env!.asResult(base!), values, inputs);
   io.progress?.('');
   io.stdout(values.json ? toJson(summary) : renderRun(summary));
   if (failBelow !== undefined && summary.envelope.dt !== null && summary.envelope.dt < failBelow) {

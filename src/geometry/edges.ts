@@ -14,7 +14,7 @@ export interface EdgeTopology {
   edgeCells: Int32Array;
   /** Local edge index k (edge from node k to node k+1) within c0 and within c1 (-1 on the boundary). */
   edgeLocal: Int8Array;
-  /** Per half-edge (aligned with cellNodes): the edge it belongs to. */
+  /** Per half-edge (aligned with cellNodes): the edge it belongs to; -1 for a side whose two ends are one node. */
   halfEdgeEdge: Int32Array;
 }
 
@@ -52,33 +52,38 @@ export function buildEdges(mesh: Mesh, file?: string): EdgeTopology {
   const edgeCells = new Int32Array(2 * nHalf);
   const edgeLocal = new Int8Array(2 * nHalf);
   const halfEdgeEdge = new Int32Array(nHalf).fill(-1);
+  // per other node q: the edge (p, q) made while scanning bucket p (stamped by p: no clearing)
+  const stamp = new Int32Array(nPoints).fill(-1);
+  const edgeOf = new Int32Array(nPoints);
   let ne = 0;
   for (let p = 0; p < nPoints; p++) {
     const s = start[p]!, e = start[p + 1]!;
     for (let i = s; i < e; i++) {
-      const hi = bucketHalf[i]!;
-      if (halfEdgeEdge[hi] !== -1) continue;
-      const q = other(hi);
-      const edge = ne++;
-      halfEdgeEdge[hi] = edge;
-      edgeNodes[2 * edge] = p;
-      edgeNodes[2 * edge + 1] = q;
-      edgeCells[2 * edge] = halfCell[hi]!;
-      edgeCells[2 * edge + 1] = -1;
-      edgeLocal[2 * edge] = hi - off[halfCell[hi]!]!;
-      edgeLocal[2 * edge + 1] = -1;
-      let count = 1;
-      for (let j = i + 1; j < e; j++) {
-        const hj = bucketHalf[j]!;
-        if (halfEdgeEdge[hj] !== -1 || other(hj) !== q) continue;
-        count++;
-        if (count > 2) {
-          throw new MeshInputError(`the edge between nodes ${p} and ${q} is shared by three or more cells (cells ${edgeCells[2 * edge]}, ${edgeCells[2 * edge + 1]}, ${halfCell[hj]})`, file === undefined ? {} : { file });
-        }
-        halfEdgeEdge[hj] = edge;
-        edgeCells[2 * edge + 1] = halfCell[hj]!;
-        edgeLocal[2 * edge + 1] = hj - off[halfCell[hj]!]!;
+      const h = bucketHalf[i]!;
+      const q = other(h);
+      if (q === p) continue; // a side from a node to itself (a cell that repeats a node)
+      const c = halfCell[h]!;
+      if (stamp[q] !== p) {
+        stamp[q] = p;
+        const edge = ne++;
+        edgeOf[q] = edge;
+        halfEdgeEdge[h] = edge;
+        edgeNodes[2 * edge] = p;
+        edgeNodes[2 * edge + 1] = q;
+        edgeCells[2 * edge] = c;
+        edgeCells[2 * edge + 1] = -1;
+        edgeLocal[2 * edge] = h - off[c]!;
+        edgeLocal[2 * edge + 1] = -1;
+        continue;
       }
+      const edge = edgeOf[q]!;
+      if (edgeCells[2 * edge] === c || edgeCells[2 * edge + 1] === c) continue; // the same cell twice on one edge
+      if (edgeCells[2 * edge + 1] !== -1) {
+        throw new MeshInputError(`the edge between nodes ${p} and ${q} is shared by three or more cells (cells ${edgeCells[2 * edge]}, ${edgeCells[2 * edge + 1]}, ${c})`, file === undefined ? {} : { file });
+      }
+      halfEdgeEdge[h] = edge;
+      edgeCells[2 * edge + 1] = c;
+      edgeLocal[2 * edge + 1] = h - off[c]!;
     }
   }
   return {

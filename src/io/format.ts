@@ -8,6 +8,7 @@ export function num(x: number): string {
   if (x === Infinity) return 'inf';
   if (x === -Infinity) return '-inf';
   if (x !== x) return 'nan';
+  if (x === 0 && 1 / x < 0) return '-0';
   return String(x);
 }
 
