@@ -7,18 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { QUAD, TRIANGLE, findArray } from '../../../src/mesh/model.js';
 import { readMsh } from '../../../src/mesh/msh/index.js';
 import { ALL_ENCODINGS, encodeMsh, encodingName, type MshDoc, type MshElement } from './encode.js';
-
-/** Seeded generator (mulberry32; common practice). */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { rng } from '../../helpers/meshes.js';
 
 function shuffle<T>(a: T[], r: () => number): T[] {
   for (let i = a.length - 1; i > 0; i--) {
