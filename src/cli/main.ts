@@ -4,6 +4,7 @@ import { VERSION } from '../audit/audit.js';
 import { auditCommand } from './audit-command.js';
 import { schemeCommand } from './scheme-command.js';
 import { probeCommand } from './probe-command.js';
+import { viewCommand } from './view-command.js';
 import { readInput } from './files.js';
 import * as fs from 'node:fs';
 import type { CliIo } from './io.js';
@@ -15,9 +16,10 @@ usage
   steplens audit A.vtu B.vtu ...    a run: limit per snapshot, envelope, step schedule
   steplens scheme --time T --space S  the largest stable Courant number of a scheme
   steplens probe FILE [options]     measured stability of the upwind operator (power iteration)
+  steplens view [FILE] [options]    the mesh coloured by allowed step in the browser (127.0.0.1)
   steplens --help | --version
 
-Run "steplens audit --help", "steplens scheme --help" or "steplens probe --help" for the options.
+Run "steplens COMMAND --help" (audit, scheme, probe, view) for the options.
 exit codes: 0 ok, 2 bad usage or unreadable file, 3 limit below --fail-below, 1 internal error
 `;
 
@@ -53,6 +55,8 @@ export async function main(argv: string[], io: CliIo = nodeIo()): Promise<number
         return 0;
       case 'audit':
         return await auditCommand(rest, io);
+      case 'view':
+        return await viewCommand(rest, io);
       case 'probe':
         return await probeCommand(rest, io);
       case 'scheme':
