@@ -8,6 +8,7 @@
  * √(ΣLᵢ²)·h_max / (4√2·min Aᵢ) (Aᵢ: the four corner-triangle areas) as the library does.
  */
 import { QUAD, type Mesh } from '../mesh/model.js';
+import { angleDegrees } from './angle.js';
 import { DEG, inverseOrthographic, orthographic, projected, wrapLongitude, type CoordinateSystem } from './geographic.js';
 
 export const FLAG_DEGENERATE = 1;
@@ -60,15 +61,29 @@ export function allocGeometry(n: number): CellGeometry {
   };
 }
 
+/**
+ * |(x, y)|. The plain square root is many times faster than Math.hypot; hypot is kept for the
+ * rare lengths whose squares would overflow or lose precision to underflow.
+ */
+function len(x: number, y: number): number {
+  const s = x * x + y * y;
+  return s < 1e300 && s > 1e-300 ? Math.sqrt(s) : Math.hypot(x, y);
+}
+
 /** Angle in degrees between two vectors given their cross and dot products. */
 function angleDeg(cross: number, dot: number): number {
-  return Math.atan2(Math.abs(cross), dot) * RAD2DEG;
+  return angleDegrees(Math.abs(cross), dot);
 }
 
 /** Interior angle (degrees) at a quad corner between −e_{k−1} = −(ax,ay) and e_k = (bx,by); reflex when α < 0. */
 function cornerAngle(ax: number, ay: number, bx: number, by: number, alpha: number): number {
-  const t = Math.atan2(Math.abs(alpha), -(ax * bx + ay * by)) * RAD2DEG;
+  const t = angleDegrees(Math.abs(alpha), -(ax * bx + ay * by));
   return alpha < 0 ? 360 - t : t;
+}
+
+/** Verdict's scaled corner Jacobian α_k / (|L_k|·|L_{k−1}|); 0 where a side has zero length (two corners coincide). */
+function cornerJacobian(alpha: number, la: number, lb: number): number {
+  return la > 0 && lb > 0 ? alpha / (la * lb) : 0;
 }
 
 /** Verdict's corner condition number (|L_k|² + |L_{k−1}|²) / α_k (halved by the caller). */
@@ -93,9 +108,9 @@ function setDegenerate(g: CellGeometry, i: number, repeated: boolean, altitude: 
 function triangle(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by: number, cx: number, cy: number, repeated: boolean): void {
   // edges: e0 = b - a, e1 = c - b, e2 = a - c
   const e1x = cx - bx, e1y = cy - by;
-  const l0 = Math.hypot(bx, by);
-  const l1 = Math.hypot(e1x, e1y);
-  const l2 = Math.hypot(cx, cy);
+  const l0 = len(bx, by);
+  const l1 = len(e1x, e1y);
+  const l2 = len(cx, cy);
   const cross = bx * cy - by * cx; // 2 × signed area
   const sa = 0.5 * cross;
   const A = Math.abs(sa);
@@ -115,11 +130,10 @@ function triangle(g: CellGeometry, i: number, ox: number, oy: number, bx: number
   const db = -(bx * e1x + by * e1y);
   const dc = e1x * cx + e1y * cy; // (a - c)·(b - c) = (−c)·(−e1) = c·e1
   const twoA = 2 * A;
-  // angle opposite each edge: opposite l0 is at c, opposite l1 at a, opposite l2 at b
-  const angA = angleDeg(twoA, da), angB = angleDeg(twoA, db), angC = angleDeg(twoA, dc);
-  let amin = angA, amax = angA;
-  if (angB < amin) amin = angB; if (angB > amax) amax = angB;
-  if (angC < amin) amin = angC; if (angC > amax) amax = angC;
+  // every corner angle is atan2(2A, its dot product), decreasing in the dot product: the
+  // largest dot gives the smallest angle and the smallest dot the largest (two atan2, not three)
+  const amin = angleDeg(twoA, Math.max(da, db, dc));
+  const amax = angleDeg(twoA, Math.min(da, db, dc));
   const degenerate = repeated || !(A > DEGENERATE_AREA * lmax * lmax);
   if (degenerate) {
     g.inradius[i] = P > 0 ? twoA / P : 0;
@@ -151,7 +165,7 @@ function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by
   const e1x = cx - bx, e1y = cy - by;
   const e2x = dx - cx, e2y = dy - cy;
   const e3x = -dx, e3y = -dy;
-  const l0 = Math.hypot(e0x, e0y), l1 = Math.hypot(e1x, e1y), l2 = Math.hypot(e2x, e2y), l3 = Math.hypot(e3x, e3y);
+  const l0 = len(e0x, e0y), l1 = len(e1x, e1y), l2 = len(e2x, e2y), l3 = len(e3x, e3y);
   // shoelace with a at the origin: 2A = b×c + c×d
   const sa = 0.5 * ((bx * cy - by * cx) + (cx * dy - cy * dx));
   const A = Math.abs(sa);
@@ -202,7 +216,7 @@ function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by
   const sumL2 = l0 * l0 + l1 * l1 + l2 * l2 + l3 * l3;
   g.radiusRatio[i] = amn > 0 ? Math.sqrt(sumL2 * h2) / (2 * SQRT2 * amn) : Infinity;
   g.aspectRatio[i] = (0.5 * lmax * P) / (Math.abs(a1) + Math.abs(a3));
-  g.scaledJacobian[i] = Math.min(a0 / (l0 * l3), a1 / (l1 * l0), a2 / (l2 * l1), a3 / (l3 * l2));
+  g.scaledJacobian[i] = Math.min(cornerJacobian(a0, l0, l3), cornerJacobian(a1, l1, l0), cornerJacobian(a2, l2, l1), cornerJacobian(a3, l3, l2));
   const cond = Math.max(
     cornerCondition(a0, l0, l3), cornerCondition(a1, l1, l0), cornerCondition(a2, l2, l1), cornerCondition(a3, l3, l2));
   g.condition[i] = cond / 2;
