@@ -22,7 +22,7 @@ import { pickCell } from './pick.js';
 import type { AuditPayload, ErrorPayload, FieldPayload, MeshPayload, MeshSource, Reply } from './protocol.js';
 import { attachControls } from './scene/controls.js';
 import { MeshScene } from './scene/scene.js';
-import { WorkerClient, WorkerError, type RequestBody } from './worker-client.js';
+import { CancelledError, WorkerClient, WorkerError, type RequestBody } from './worker-client.js';
 
 type State = 'loading' | 'ready' | 'error';
 
@@ -69,6 +69,10 @@ export class App {
   readonly timings: Timings = { loadStart: 0, firstFrame: null, workerMs: null, stages: {} };
 
   private readonly firstLoad: Promise<void>;
+  /** The last mesh shown, to load again after a cancelled load (the new worker holds none). */
+  private lastGood: { source: 'url'; url: string; label: string } | { source: 'files'; files: File[] } | null = null;
+  /** Bumped by every cancel: work started before it stops at its next step. */
+  private cancelGen = 0;
 
   constructor(catalogue: SchemeCatalogue | null) {
     this.worker = new WorkerClient((stage, fraction) => this.showProgress(stage, fraction), (e) => this.showError(e));
@@ -137,6 +141,7 @@ export class App {
   }
 
   private fail(e: unknown): void {
+    if (e instanceof CancelledError) return;
     if (e instanceof WorkerError) this.showError(e.payload);
     else if (e instanceof LoadError) this.showError({ kind: 'input', detail: e.message, message: e.message });
     else {
@@ -195,7 +200,8 @@ export class App {
       this.timings.firstFrame = null;
       this.showProgress('Downloading', null);
       const u = sameOriginUrl(url, location.href);
-      await this.loadFrom({ kind: 'url', url: u.href }, [], options, fileLabel ?? nameOfUrl(u));
+      const label = fileLabel ?? nameOfUrl(u);
+      if (await this.loadFrom({ kind: 'url', url: u.href }, [], options, label)) this.lastGood = { source: 'url', url: u.href, label };
     });
   }
 
@@ -204,17 +210,21 @@ export class App {
       this.timings.loadStart = performance.now();
       this.timings.firstFrame = null;
       this.showProgress('Reading the file', null);
-      const got = await readFiles(list);
-      await this.loadFrom({ kind: 'files', ...got }, got.files.map((f) => f.bytes), null, got.primary);
+      const files = Array.from(list);
+      const gen = this.cancelGen;
+      const got = await readFiles(files);
+      if (gen !== this.cancelGen) return;
+      if (await this.loadFrom({ kind: 'files', ...got }, got.files.map((f) => f.bytes), null, got.primary)) this.lastGood = { source: 'files', files };
     });
   }
 
-  private async loadFrom(source: MeshSource, transfer: Transferable[], options: AuditOptions | null, fileLabel: string): Promise<void> {
+  /** True when the mesh was loaded and shown. */
+  private async loadFrom(source: MeshSource, transfer: Transferable[], options: AuditOptions | null, fileLabel: string): Promise<boolean> {
     const reply = await this.call(
       { kind: 'load', source, options: { ...(options ?? {}), file: fileLabel }, auto: options === null, field: this.fieldId },
       transfer,
     );
-    if (reply.kind !== 'loaded') return;
+    if (reply.kind !== 'loaded') return false;
     const received = performance.now() - this.timings.loadStart;
     this.hideError();
     this.timings.workerMs = reply.ms;
@@ -225,6 +235,31 @@ export class App {
     this.timings.stages = { ...this.timings.stages, ...reply.stages, received, installed: performance.now() - this.timings.loadStart };
     this.readyAfterFrame();
     void this.loadExtras();
+    return true;
+  }
+
+  /**
+   * Cancel the load or audit under way: the worker is replaced, and the mesh that was shown
+   * before (if any) is loaded into the new worker again with the settings it had.
+   */
+  private async cancelWork(): Promise<void> {
+    this.cancelGen++;
+    this.worker.restart();
+    this.hideProgress();
+    const prev = this.lastGood;
+    const options = this.audit?.options ?? null;
+    if (!prev) {
+      this.showError({ kind: 'usage', detail: 'loading was cancelled; open a mesh to start again', message: 'cancelled' });
+      return;
+    }
+    await this.withBusy(async () => {
+      this.showProgress('Restoring the previous mesh', null);
+      if (prev.source === 'url') await this.loadFrom({ kind: 'url', url: prev.url }, [], options, prev.label);
+      else {
+        const got = await readFiles(prev.files);
+        await this.loadFrom({ kind: 'files', ...got }, got.files.map((f) => f.bytes), options, got.primary);
+      }
+    });
   }
 
   private installMesh(m: MeshPayload): void {
@@ -505,6 +540,7 @@ export class App {
   // ---- DOM wiring -----------------------------------------------------------------------
 
   private wireControls(): void {
+    byId('progress-cancel').addEventListener('click', () => void this.cancelWork());
     this.wireInputs();
     this.wireColourControls();
     this.wireView();

@@ -250,6 +250,26 @@ describe('steplens view in headless Chromium', () => {
     expect(await page.getAttribute('#app', 'data-state')).toBe('ready');
   });
 
+  it('a large load can be cancelled; the previous mesh comes back', async () => {
+    // a 600 × 600 grid split into 720 000 triangles, ASCII legacy VTK: seconds of work in the worker
+    const n = 600;
+    const parts: string[] = [`# vtk DataFile Version 4.2\nlarge grid\nASCII\nDATASET UNSTRUCTURED_GRID\nPOINTS ${(n + 1) ** 2} double\n`];
+    for (let j = 0; j <= n; j++) for (let i = 0; i <= n; i++) parts.push(`${i} ${j} 0\n`);
+    parts.push(`CELLS ${2 * n * n} ${8 * n * n}\n`);
+    for (let j = 0; j < n; j++) for (let i = 0; i < n; i++) {
+      const a = j * (n + 1) + i;
+      parts.push(`3 ${a} ${a + 1} ${a + n + 2}\n3 ${a} ${a + n + 2} ${a + n + 1}\n`);
+    }
+    parts.push(`CELL_TYPES ${2 * n * n}\n${'5\n'.repeat(2 * n * n)}`);
+    await page.setInputFiles('#file-input', { name: 'large.vtk', mimeType: 'application/octet-stream', buffer: Buffer.from(parts.join('')) });
+    await page.waitForSelector('#progress-stage:has-text("Reading large.vtk")');
+    await page.click('[data-role="cancel-load"]');
+    await page.waitForSelector('#app[data-state="ready"]');
+    expect(await page.textContent('#file-name')).toBe('harbour.vtu');
+    expect(await globalLimit(page)).toBe(harbourCli.limit.dt);
+    expect(await page.isVisible('[data-role="error-panel"]')).toBe(false);
+  });
+
   it('takes a dropped Triangle .node and .ele pair', async () => {
     // a unit square cut into two right triangles, no arrays: the view assumes λ = 1 m/s,
     // so dt = h = 2A/P = 1 / (2 + √2) s for both (legs 1, hypotenuse √2)
