@@ -3,7 +3,8 @@
  */
 import { MeshInputError } from './errors.js';
 import type { Mesh } from './model.js';
-import { readVtkXml } from './vtkxml/index.js';
+import { readVtkXml, type VtkXmlOptions } from './vtkxml/index.js';
+import type { Inflate } from './vtkxml/arrays.js';
 import { readVtkLegacy } from './legacy/index.js';
 import { readMsh } from './msh/index.js';
 import { readTriangle } from './triangle/index.js';
@@ -11,8 +12,10 @@ import { readTriangle } from './triangle/index.js';
 export type FormatId = 'vtk-xml' | 'vtk-legacy' | 'msh' | 'triangle-node' | 'triangle-ele';
 
 export interface ReadOptions {
-  /** Loads a file next to the one being read (Triangle's .node/.ele sibling), or null if absent. */
+  /** Loads a file next to the one being read (Triangle's .node/.ele sibling, a .pvtu's pieces), or null if absent. */
   loadSibling?: (name: string) => Uint8Array | null;
+  /** A faster zlib inflation than the built-in one (the CLI passes Node's). */
+  inflate?: Inflate;
 }
 
 function startsWith(bytes: Uint8Array, at: number, text: string): boolean {
@@ -53,8 +56,12 @@ export function readMesh(bytes: Uint8Array, name: string, options: ReadOptions =
   if (bytes.length === 0) throw new MeshInputError('the file is empty', { file: name });
   const fmt = sniffFormat(bytes, name);
   switch (fmt) {
-    case 'vtk-xml':
-      return readVtkXml(bytes, name);
+    case 'vtk-xml': {
+      const xml: VtkXmlOptions = {};
+      if (options.loadSibling) xml.loadSibling = options.loadSibling;
+      if (options.inflate) xml.inflate = options.inflate;
+      return readVtkXml(bytes, name, xml);
+    }
     case 'vtk-legacy':
       return readVtkLegacy(bytes, name);
     case 'msh':

@@ -22,6 +22,25 @@ export interface ArrayContext {
   /** Start of the appended data (the byte after '_'), or -1 when the file has none. */
   appendedStart: number;
   appendedEncoding: 'raw' | 'base64';
+  /**
+   * Raw appended data read in place from the file: `bytes` then holds only the XML head, and
+   * each array is read at its own offset into a buffer of its own (aligned, so viewed without
+   * a copy; and files over the buffer limit can be read).
+   */
+  appended?: AppendedAccess;
+  /** zlib inflation to use instead of the built-in one (the CLI passes Node's native zlib). */
+  inflate?: Inflate;
+}
+
+/** Inflate one zlib stream into `out`; returns the bytes written (throws on bad data or overflow). */
+export type Inflate = (src: Uint8Array, out: Uint8Array) => number;
+
+/** Access to the raw appended data of a file that is not held in memory as a whole. */
+export interface AppendedAccess {
+  /** Size of the whole file in bytes. */
+  fileSize: number;
+  /** Bytes of the file from `fileOffset` on. */
+  open(fileOffset: number): ByteSource;
 }
 
 export const ZLIB = 'vtkZLibDataCompressor';
@@ -105,8 +124,9 @@ export function arrayInfo(ctx: ArrayContext, el: XmlElement): ArrayInfo | null {
     if (ctx.appendedStart < 0) throw new MeshInputError(`DataArray "${name}" is appended but the file has no AppendedData section`, { file, byteOffset: el.start });
     encoding = ctx.appendedEncoding === 'raw' ? 'appended-raw' : 'appended-base64';
     const offset = attrInt(ctx, el, 'offset', null);
-    if (offset >= ctx.bytes.length - ctx.appendedStart) {
-      throw new MeshInputError(`DataArray "${name}" has offset ${offset}, beyond the end of the appended data (${ctx.bytes.length - ctx.appendedStart} bytes)`, { file, byteOffset: el.start });
+    const size = (ctx.appended?.fileSize ?? ctx.bytes.length) - ctx.appendedStart;
+    if (offset >= size) {
+      throw new MeshInputError(`DataArray "${name}" has offset ${offset}, beyond the end of the appended data (${size} bytes)`, { file, byteOffset: el.start });
     }
     loc = { file, byteOffset: ctx.appendedStart + offset };
   } else {
@@ -116,7 +136,7 @@ export function arrayInfo(ctx: ArrayContext, el: XmlElement): ArrayInfo | null {
 }
 
 /** Bytes of an array's binary data, read through the file's header integers. */
-interface ByteSource {
+export interface ByteSource {
   /** An upper bound of the bytes left. */
   available(): number;
   read(n: number, what: string): Uint8Array;
@@ -223,7 +243,8 @@ function inflateBlocks(ctx: ArrayContext, src: ByteSource, name: string, expect:
     const blockAt = src.owned ? dataAt : dataAt + ci;
     let got: number;
     try {
-      got = unzlibSync(comp.subarray(ci, ci + sizes[k]!), { out: out.subarray(oi, oi + want + 1) }).length;
+      const block = comp.subarray(ci, ci + sizes[k]!), room = out.subarray(oi, oi + want + 1);
+      got = ctx.inflate ? ctx.inflate(block, room) : unzlibSync(block, { out: room }).length;
     } catch (e) {
       throw new MeshInputError(`block ${k + 1} of ${nb} of "${name}" does not inflate (${e instanceof Error ? e.message : String(e)})`, { file, byteOffset: blockAt });
     }
@@ -251,7 +272,12 @@ function binaryBytes(ctx: ArrayContext, info: ArrayInfo, expect: Expect): { data
   const size = typeSize(info.type);
   let src: ByteSource;
   if (info.encoding === 'binary') src = new Base64Source(ctx.bytes, el.textStart, el.textEnd, ctx.file);
-  else if (info.encoding === 'appended-base64') src = new Base64Source(ctx.bytes, info.loc.byteOffset!, ctx.bytes.length, ctx.file);
+  else if (ctx.appended) {
+    if (info.encoding === 'appended-base64') {
+      throw new MeshInputError(`"${name}": appended base64 data is read only from files that fit in one buffer; write the file with raw appended data`, info.loc);
+    }
+    src = ctx.appended.open(info.loc.byteOffset!);
+  } else if (info.encoding === 'appended-base64') src = new Base64Source(ctx.bytes, info.loc.byteOffset!, ctx.bytes.length, ctx.file);
   else src = new RawSource(ctx.bytes, info.loc.byteOffset!, ctx.file);
   if (ctx.compressor !== null) {
     if (ctx.compressor !== ZLIB) {

@@ -6,14 +6,24 @@ import { assembleMesh, keepSurfaceCells, planarPoints } from '../cells.js';
 import { MeshInputError } from '../errors.js';
 import type { Mesh } from '../model.js';
 import { isSpace } from '../scan.js';
-import { arrayInfo, attrInt, readField, type ArrayContext } from './arrays.js';
+import { arrayInfo, attrInt, readField, type AppendedAccess, type ArrayContext, type Inflate } from './arrays.js';
 import { mergePieces } from './merge.js';
 import { readPolyPiece, readUnstructuredPiece } from './piece.js';
+import { PARALLEL_KINDS, readPartitioned } from './pvtu.js';
 import { childNamed, childrenNamed, parseXmlHead, type XmlElement } from './xml.js';
+
+export interface VtkXmlOptions {
+  /** Loads the pieces of a partitioned file (.pvtu) by path, or null when one is missing. */
+  loadSibling?: (name: string) => Uint8Array | null;
+  /** Reads raw appended arrays in place; `bytes` is then only the file's XML head. */
+  appended?: AppendedAccess;
+  /** A faster zlib than the built-in one, where the platform has it. */
+  inflate?: Inflate;
+}
 
 const TIME_NAMES = ['TimeValue', 'TIME'];
 
-function fileContext(bytes: Uint8Array, file: string, root: XmlElement, appended: XmlElement | null): ArrayContext {
+function fileContext(bytes: Uint8Array, file: string, root: XmlElement, appended: XmlElement | null, options: VtkXmlOptions): ArrayContext {
   const at = { file, byteOffset: root.start };
   const order = root.attrs.get('byte_order') ?? 'LittleEndian';
   if (order !== 'LittleEndian' && order !== 'BigEndian') throw new MeshInputError(`unknown byte_order "${order}"`, at);
@@ -31,7 +41,10 @@ function fileContext(bytes: Uint8Array, file: string, root: XmlElement, appended
     if (bytes[p] !== 95 /* _ */) throw new MeshInputError("AppendedData does not start with the '_' marker", { file, byteOffset: p });
     appendedStart = p + 1;
   }
-  return { bytes, file, bigEndian: order === 'BigEndian', header64: header === 'UInt64', compressor, appendedStart, appendedEncoding };
+  const ctx: ArrayContext = { bytes, file, bigEndian: order === 'BigEndian', header64: header === 'UInt64', compressor, appendedStart, appendedEncoding };
+  if (options.appended) ctx.appended = options.appended;
+  if (options.inflate) ctx.inflate = options.inflate;
+  return ctx;
 }
 
 function readTime(ctx: ArrayContext, dataset: XmlElement, warnings: string[]): number | undefined {
@@ -51,15 +64,18 @@ function readTime(ctx: ArrayContext, dataset: XmlElement, warnings: string[]): n
   return undefined;
 }
 
-export function readVtkXml(bytes: Uint8Array, file: string): Mesh {
+export function readVtkXml(bytes: Uint8Array, file: string, options: VtkXmlOptions = {}): Mesh {
   if (bytes.length === 0) throw new MeshInputError('the file is empty', { file, byteOffset: 0 });
   const { root, appended } = parseXmlHead(bytes, file);
   if (root.name !== 'VTKFile') throw new MeshInputError(`not a VTK XML file: the root element is <${root.name}>`, { file, byteOffset: root.start });
   const kind = root.attrs.get('type') ?? '';
-  if (kind !== 'UnstructuredGrid' && kind !== 'PolyData') {
-    throw new MeshInputError(`VTK XML type "${kind}" is not read; UnstructuredGrid (.vtu) or PolyData (.vtp) expected`, { file, byteOffset: root.start });
+  if (PARALLEL_KINDS[kind] !== undefined) {
+    return readPartitioned(root, file, options.loadSibling, (b, name) => readVtkXml(b, name, options.inflate ? { inflate: options.inflate } : {}));
   }
-  const ctx = fileContext(bytes, file, root, appended);
+  if (kind !== 'UnstructuredGrid' && kind !== 'PolyData') {
+    throw new MeshInputError(`VTK XML type "${kind}" is not read; UnstructuredGrid (.vtu), PolyData (.vtp) or their partitioned forms (.pvtu, .pvtp) expected`, { file, byteOffset: root.start });
+  }
+  const ctx = fileContext(bytes, file, root, appended, options);
   const dataset = childNamed(root, kind);
   if (!dataset) throw new MeshInputError(`the file has no <${kind}> element`, { file, byteOffset: root.start });
   const pieceEls = childrenNamed(dataset, 'Piece');

@@ -6,7 +6,8 @@ import { MeshInputError } from '../errors.js';
 import type { DataArray } from '../model.js';
 import type { PieceData } from './piece.js';
 
-function joinArrays(lists: DataArray[][], what: string, warnings: string[]): DataArray[] {
+/** Arrays of the same name joined across pieces; those missing or shaped differently somewhere are left out with a warning. */
+export function joinArrays(lists: DataArray[][], what: string, warnings: string[]): DataArray[] {
   const out: DataArray[] = [];
   const names = new Set<string>();
   for (const list of lists) for (const a of list) names.add(a.name);

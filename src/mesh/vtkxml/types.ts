@@ -44,19 +44,25 @@ export function swapBytes(b: Uint8Array, size: number): void {
 }
 
 /**
- * Little-endian, `size`-aligned bytes for `data`: the bytes themselves when possible,
- * else one copy (swapped when the file is big-endian). `owned` bytes may be swapped in place.
+ * Little-endian bytes for `data`, aligned to `align` bytes (default: the value size): the bytes
+ * themselves when possible, else one copy (swapped when the file is big-endian). `owned` bytes
+ * may be swapped in place.
  */
-function nativeBytes(data: Uint8Array, size: number, bigEndian: boolean, owned: boolean): Uint8Array {
+function nativeBytes(data: Uint8Array, size: number, bigEndian: boolean, owned: boolean, align = size): Uint8Array {
   if (size === 1) return data;
   let b = data;
   if (bigEndian) {
     if (!owned || data.byteOffset % size !== 0) b = data.slice();
     swapBytes(b, size);
-  } else if (data.byteOffset % size !== 0) {
+  } else if (data.byteOffset % align !== 0) {
     b = data.slice();
   }
   return b;
+}
+
+/** 64-bit integers are read as pairs of 32-bit words, so 4-byte alignment is enough for a view. */
+function viewAlignment(t: NumType): number {
+  return t === 'Int64' || t === 'UInt64' ? 4 : SIZES[t];
 }
 
 function view(b: Uint8Array, t: NumType): ArrayLike<number> {
@@ -80,7 +86,7 @@ export const TWO32 = 4294967296;
  * Float64Array (a view when the bytes are Float64, little-endian and aligned).
  */
 export function fieldValues(data: Uint8Array, t: NumType, bigEndian: boolean, owned: boolean): FieldValues {
-  const v = view(nativeBytes(data, SIZES[t], bigEndian, owned), t);
+  const v = view(nativeBytes(data, SIZES[t], bigEndian, owned, viewAlignment(t)), t);
   if (t === 'Float32') return v as Float32Array;
   if (t === 'Float64') return v as Float64Array;
   if (t === 'Int64' || t === 'UInt64') {
@@ -101,7 +107,7 @@ export function fieldValues(data: Uint8Array, t: NumType, bigEndian: boolean, ow
  * Int32Array, or `bad` is called with the index of the first value outside the 32-bit range.
  */
 export function indexValues(data: Uint8Array, t: NumType, bigEndian: boolean, owned: boolean, bad: (i: number, value: number) => never): ArrayLike<number> {
-  const v = view(nativeBytes(data, SIZES[t], bigEndian, owned), t);
+  const v = view(nativeBytes(data, SIZES[t], bigEndian, owned, viewAlignment(t)), t);
   if (t !== 'Int64' && t !== 'UInt64') return v;
   const n = v.length / 2;
   const w = v as Int32Array | Uint32Array;

@@ -1,0 +1,65 @@
+/**
+ * The per-cell pass on its own, in memory, medians after a warm-up: the geometry kernels into
+ * arrays already in memory, and the whole pass (geometry + wave speed + limit dt = C·h/λ), on
+ * one thread and over THREADS threads (workers kept in a pool between passes). Prints JSON.
+ * Usage: node bench/percell.mjs CELLS THREADS REPEAT
+ */
+import { computeCellRange, allocGeometry, markInverted, FLAG_DEGENERATE } from '../dist/geometry/cells.js';
+import { cellSpeeds } from '../dist/physics/speed.js';
+import { parallelGeometry, WorkerPool } from '../dist/cli/parallel.js';
+import { basinMesh } from './generate.mjs';
+
+const cells = Number(process.argv[2] ?? 1e6);
+const threads = Number(process.argv[3] ?? 2);
+const repeat = Number(process.argv[4] ?? 5);
+
+function limit(g, speed, dt) {
+  const h = g.inradius, flags = g.flags;
+  for (let i = 0; i < dt.length; i++) {
+    const l = speed[i];
+    dt[i] = flags[i] & FLAG_DEGENERATE ? 0 : l > 0 ? h[i] / l : Infinity;
+  }
+}
+
+/** Median time (ms) of `repeat` runs of `f`, after one untimed run. */
+async function time(f) {
+  const t = [];
+  for (let r = 0; r <= repeat; r++) {
+    const t0 = performance.now();
+    await f();
+    if (r > 0) t.push(performance.now() - t0);
+  }
+  t.sort((a, b) => a - b);
+  return t[Math.floor(t.length / 2)];
+}
+
+/** The mesh on shared memory, so that threaded passes time the pass, not copies. */
+function sharedMesh(m) {
+  const share = (a, C) => { const s = new C(new SharedArrayBuffer(a.byteLength)); s.set(a); return s; };
+  return { ...m, points: share(m.points, Float64Array), cellOffsets: share(m.cellOffsets, Int32Array), cellNodes: share(m.cellNodes, Int32Array), cellTypes: share(m.cellTypes, Uint8Array) };
+}
+
+const mesh = sharedMesh(basinMesh({ cells, seed: 3 }));
+const n = mesh.nCells;
+const g = allocGeometry(n);
+const dt = new Float64Array(n);
+const pool = new WorkerPool(threads - 1);
+let shared = await parallelGeometry(mesh, threads, { pool });
+const geometryOne = await time(() => { computeCellRange(mesh, g, 0, n); markInverted(g); });
+const geometryMany = await time(async () => { shared = await parallelGeometry(mesh, threads, { into: shared, pool }); });
+const passOne = await time(() => { computeCellRange(mesh, g, 0, n); markInverted(g); limit(g, cellSpeeds(mesh).speed, dt); });
+const passMany = await time(async () => {
+  shared = await parallelGeometry(mesh, threads, { into: shared, pool });
+  limit(shared, cellSpeeds(mesh).speed, dt);
+});
+await pool.close();
+const perSecond = (ms) => Math.round(n / (ms / 1000));
+process.stdout.write(JSON.stringify({
+  cells: n, threads,
+  rows: [
+    ['geometry, 1 thread', geometryOne, perSecond(geometryOne)],
+    [`geometry, ${threads} threads`, geometryMany, perSecond(geometryMany)],
+    ['pass, 1 thread', passOne, perSecond(passOne)],
+    [`pass, ${threads} threads`, passMany, perSecond(passMany)],
+  ],
+}) + '\n');

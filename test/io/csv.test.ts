@@ -1,0 +1,76 @@
+// The per-cell table written into byte buffers must be the text a plain String()-per-value
+// writer gives (written out here as the reference), chunked only between rows.
+import { describe, expect, it } from 'vitest';
+import { runAudit, CAUSE_DEGENERATE, CAUSE_FAST, CAUSE_SHAPE, CAUSE_SMALL, type AuditResult } from '../../src/audit/audit.js';
+import { cellsCsv, cellsCsvBytes, cellsCsvChunks, CSV_COLUMNS, type ExtraColumns } from '../../src/io/csv.js';
+import { FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE } from '../../src/geometry/cells.js';
+import { QUAD, type Mesh } from '../../src/mesh/model.js';
+import { gridMesh, meshOf, rng, vectorField } from '../helpers/meshes.js';
+
+function words(bits: number, names: [number, string][]): string {
+  return names.filter(([b]) => bits & b).map(([, w]) => w).join(';');
+}
+
+const num = (x: number): string => (x === Infinity ? 'inf' : x === -Infinity ? '-inf' : x !== x ? 'nan' : String(x));
+
+/** The table built with one String() per value. */
+function referenceCsv(r: AuditResult, extra: ExtraColumns): string {
+  const g = r.geom;
+  const ex: ExtraColumns = [...(r.courantAtDt ? [{ name: 'courant', values: r.courantAtDt }] : []), ...r.columns, ...extra];
+  let s = CSV_COLUMNS.concat(ex.map((c) => c.name)).join(',') + '\n';
+  for (let i = 0; i < r.mesh.nCells; i++) {
+    const q = r.mesh.cellTypes[i] === QUAD;
+    const row = [String(i), q ? 'quad' : 'triangle', num(g.area[i]!), num(g.perimeter[i]!), num(g.inradius[i]!), q ? '' : num(g.circumradius[i]!),
+      num(r.speed[i]!), num(r.dt[i]!), num(g.radiusRatio[i]!), num(g.minAngle[i]!), num(g.maxAngle[i]!), num(g.aspectRatio[i]!),
+      num(g.scaledJacobian[i]!), num(g.condition[i]!), num(g.edgeRatio[i]!), num(g.centroidX[i]!), num(g.centroidY[i]!),
+      words(g.flags[i]!, [[FLAG_DEGENERATE, 'degenerate'], [FLAG_REPEATED_NODE, 'repeated_node'], [FLAG_INVERTED, 'inverted'], [FLAG_NONCONVEX, 'non_convex']]),
+      words(r.cause[i]!, [[CAUSE_DEGENERATE, 'degenerate'], [CAUSE_SMALL, 'small'], [CAUSE_SHAPE, 'shape'], [CAUSE_FAST, 'fast']]),
+      ...ex.map((c) => num(c.values[i]!))];
+    s += row.join(',') + '\n';
+  }
+  return s;
+}
+
+/** Jittered triangles and quads in projected coordinates, still nodes, a repeated node, a clockwise quad. */
+function awkward(): Mesh {
+  const m = gridMesh(12, 9, 3.7, false, 4.2e5, 5.1e6);
+  const next = rng(5);
+  for (let i = 0; i < m.points.length; i++) m.points[i] = m.points[i]! + (next() - 0.5) * 1.5;
+  const tri = gridMesh(12, 9, 3.7, true, 4.2e5, 5.1e6 + 40);
+  const pts = [...m.points, ...tri.points];
+  const cells: number[][] = [];
+  for (let i = 0; i < m.nCells; i++) cells.push(Array.from(m.cellNodes.subarray(m.cellOffsets[i]!, m.cellOffsets[i + 1]!)));
+  for (let i = 0; i < tri.nCells; i++) cells.push(Array.from(tri.cellNodes.subarray(tri.cellOffsets[i]!, tri.cellOffsets[i + 1]!), (v) => v + m.nPoints));
+  const b = pts.length / 2;
+  pts.push(0, 0, 1, 0, 1, 1, 0, 1, 5, 5, 6, 5);
+  cells.push([b + 4, b + 4, b + 5]); // repeated node
+  cells.push([b, b + 3, b + 2, b + 1]); // clockwise quad
+  const n = pts.length / 2;
+  const vel: number[] = [];
+  for (let k = 0; k < n; k++) vel.push(k % 17 === 0 ? 0 : (next() - 0.3) * 3, k % 17 === 0 ? 0 : next() * 1e-3);
+  return meshOf(pts, cells, [vectorField('velocity', vel)]);
+}
+
+describe('cellsCsvBytes', () => {
+  const r = runAudit(awkward(), { dt: 0.05, length: 'flux', diffusivity: 0.3 });
+  const extra: ExtraColumns = [{ name: 'level', values: Int32Array.from({ length: r.mesh.nCells }, (_, i) => (i % 5) - 2) }];
+
+  it('writes the same text as one String() per value', () => {
+    expect(r.columns.length).toBeGreaterThan(0);
+    expect(r.summary.counts.degenerate).toBeGreaterThan(0);
+    expect(cellsCsv(r, extra)).toBe(referenceCsv(r, extra));
+  });
+
+  it('splits only between rows, whatever the chunk size', () => {
+    const whole = referenceCsv(r, extra);
+    const dec = new TextDecoder();
+    let joined = '';
+    for (const chunk of cellsCsvBytes(r, extra, 700)) {
+      const t = dec.decode(chunk);
+      expect(t.endsWith('\n')).toBe(true);
+      joined += t;
+    }
+    expect(joined).toBe(whole);
+    expect([...cellsCsvChunks(r, extra)].join('')).toBe(whole);
+  });
+});
