@@ -94,7 +94,7 @@ export interface AuditSummary {
   input: { coords: CoordinateSystem; length_unit: string; velocity_unit: string };
   mesh: { cells: number; points: number; types: { triangle: number; quad: number }; format: string };
   model: { name: WaveModel; velocity: string | null; depth: string | null; gravity: number | null; sound_speed: string | null; diffusivity: string | null; diffusion_scale: number | null };
-  limit: { dt: number | null; cell: number | null; courant: number; courant_source: string; centroid: [number, number] | null; cause: string[]; why: string | null; length: LengthRule; parts: Record<string, { dt: number | null; cell: number | null }> };
+  limit: { dt: number | null; cell: number | null; courant: number; courant_source: string; centroid: [number, number] | null; cause: string[]; why: string | null; length: LengthRule; parts: Record<string, { dt: number | null; cell: number | null }>; piece?: { index: number; file: string | null } };
   worst: WorstCell[];
   quantiles: { min: number | null; p01: number | null; p05: number | null; p25: number | null; median: number | null; p75: number | null; p95: number | null; max: number | null };
   near_limit: { within_2x: number; within_10x: number };

@@ -4,12 +4,15 @@ import type { DataArray } from '../mesh/model.js';
 import { runAudit, type AuditOptions, type AuditResult } from '../audit/audit.js';
 import { UsageError } from '../mesh/errors.js';
 import { WAVE_MODELS, type WaveModel } from '../physics/speed.js';
-import { cellsCsvChunks } from '../io/csv.js';
 import { toJson } from '../io/format.js';
 import { writeVtu } from '../io/vtu.js';
 import { parse, numberOption, type OptionSpec } from './args.js';
 import { analyseScheme, builtInTableau, parseTableau, TIME_INTEGRATORS, type Tableau } from '../stability/index.js';
-import { readInput, siblingLoader, writeOutput, writeText, writeBytes } from './files.js';
+import { readInput, writeOutput, writeBytes, writeText } from './files.js';
+import { readMeshFile } from './large-vtu.js';
+import { parallelGeometry, readMeshParallel, threadsOption } from './parallel.js';
+import { writeCellsCsv } from './parallel-csv.js';
+import { pieceOfCell } from '../mesh/vtkxml/pvtu.js';
 import { renderReport } from './report.js';
 import { buildPlan, checkPlanOptions, type Plan, type PlanOptions } from '../audit/plan.js';
 import { sizeFieldCsvChunks } from '../audit/sizefield.js';
@@ -50,6 +53,8 @@ outputs
   --top N               number of worst cells listed (default 10)
   --fail-below DT       exit 3 when the largest stable step is below DT seconds
   --safety S            with several files (a run): step schedule = S × limit (default 0.9)
+  --threads N           worker threads for .pvtu pieces, geometry and the CSV (default: the
+                        available cores; results are identical for every N)
   --debug               show stack traces of unexpected errors
 decision
   --gains F,F,...       remeshing table: how many worst cells must stop limiting the step
@@ -79,7 +84,7 @@ const SPEC: OptionSpec = {
   'velocity-unit': { type: 'string' }, time: { type: 'string' }, space: { type: 'string' },
   gains: { type: 'string' }, 'target-dt': { type: 'string' }, 'size-field': { type: 'string' }, lts: { type: 'boolean' },
   'lts-levels': { type: 'string' }, duration: { type: 'string' }, 'cell-step-cost': { type: 'string' },
-  'courant-min': { type: 'string' }, 'suggest-dt': { type: 'boolean' }, 'band-share': { type: 'string' }, safety: { type: 'string' },
+  'courant-min': { type: 'string' }, 'suggest-dt': { type: 'boolean' }, 'band-share': { type: 'string' }, safety: { type: 'string' }, threads: { type: 'string' },
 };
 
 /** The decision options (remeshing, size field, local time stepping, run cost, Courant band). */
@@ -176,17 +181,13 @@ function applyScheme(o: AuditOptions, values: Record<string, unknown>, overridde
   o.courantSource = `von Neumann analysis of ${r.time} × ${r.space}`;
 }
 
-/** Read a mesh; every file read for it (the file and a Triangle sibling) is added to `inputs`, which outputs must never overwrite. */
+/**
+ * Read a mesh (files over one buffer are read array by array; a .pvtu reads its pieces); every
+ * file read for it (the file, a Triangle sibling, the pieces) is added to `inputs`, which
+ * outputs must never overwrite.
+ */
 export function loadMesh(file: string, inputs: string[] = []) {
-  const bytes = readInput(file);
-  inputs.push(file);
-  return readMesh(bytes, file, {
-    loadSibling: (name) => {
-      const b = siblingLoader(name);
-      if (b) inputs.push(name);
-      return b;
-    },
-  });
+  return readMeshFile(file, { onFile: (f) => inputs.push(f) });
 }
 
 /** Input arrays whose names our results take are kept as NAME_input. */
@@ -195,10 +196,10 @@ function keepInputArrays(input: DataArray[], ours: DataArray[]): DataArray[] {
   return input.map((a) => (taken.has(a.name) ? { ...a, name: `${a.name}_input` } : a));
 }
 
-export function writeResults(r: AuditResult, values: Record<string, unknown>, inputs: string[], plan?: Plan): void {
+export function writeResults(r: AuditResult, values: Record<string, unknown>, inputs: string[], plan?: Plan, threads = 1): void {
   if (values.cells !== undefined) {
     const out = String(values.cells);
-    writeOutput(out, inputs, (fd) => { for (const chunk of cellsCsvChunks(r, plan?.cellColumns)) writeText(fd, chunk); });
+    writeOutput(out, inputs, (fd) => writeCellsCsv(fd, r, plan?.cellColumns ?? [], threads));
   }
   if (values['size-field'] !== undefined && plan?.nodeSize) {
     const sizes = plan.nodeSize;
@@ -240,13 +241,26 @@ export async function auditCommand(args: string[], io: CliIo): Promise<number> {
   const failBelow = numberOption(values['fail-below'], 'fail-below');
   const options = auditOptionsFrom(values, file);
   const planOptions = planOptionsFrom(values);
+  const threads = threadsOption(values.threads);
   io.progress?.(`reading ${file}`);
   const inputs: string[] = [];
-  const mesh = loadMesh(file, inputs);
+  const mesh = threads > 1 ? await readMeshParallel(file, threads, { onFile: (f) => inputs.push(f) }) : loadMesh(file, inputs);
   io.progress?.(`auditing ${mesh.nCells} cells`);
+  if (threads > 1) {
+    options.geometry = await parallelGeometry(mesh, threads, {
+      ...(options.coords !== undefined ? { coords: options.coords } : {}),
+      ...(options.lengthUnit !== undefined ? { lengthUnit: options.lengthUnit } : {}),
+    });
+  }
   const result = runAudit(mesh, options);
+  if (/\.p(vtu|vtp)$/i.test(file) && result.summary.limit.cell !== null) {
+    const piece = pieceOfCell(result.mesh, result.summary.limit.cell);
+    // inputs: the .pvtu first, then its pieces in order
+    if (piece !== null) result.summary.limit.piece = { index: piece, file: inputs[1 + piece] ?? null };
+  }
   const plan = buildPlan(result, planOptions);
-  writeResults(result, values, inputs, plan);
+  io.progress?.('writing');
+  writeResults(result, values, inputs, plan, threads);
   io.progress?.('');
   if (values.json) io.stdout(toJson({ ...result.summary, plan: plan.summary }));
   else io.stdout(renderReport(result.summary, plan.summary));

@@ -19,10 +19,6 @@ export function readInput(file: string): Uint8Array {
   return new Uint8Array(buf.buffer, buf.byteOffset, buf.byteLength);
 }
 
-export function siblingLoader(name: string): Uint8Array | null {
-  return fs.existsSync(name) ? readInput(name) : null;
-}
-
 function sameFile(a: string, b: string): boolean {
   try {
     const sa = fs.statSync(a), sb = fs.statSync(b);

@@ -35,6 +35,7 @@ export function renderReport(s: AuditSummary, plan?: PlanSummary): string {
     push(`LARGEST STABLE STEP  ${formatSeconds(s.limit.dt)}  (${s.limit.dt} s)`);
     const xy = s.input.coords === 'geographic' ? ['lon', 'lat'] : ['x', 'y'];
     push(`  set by cell ${s.limit.cell} at ${xy[0]} = ${c ? formatNumber(c[0], 10) : '?'}, ${xy[1]} = ${c ? formatNumber(c[1], 10) : '?'}`);
+    if (s.limit.piece) push(`  in piece  ${s.limit.piece.index}${s.limit.piece.file ? ` (${s.limit.piece.file})` : ''}`);
     if (s.limit.why) push(`  because   ${s.limit.why}`);
     const parts = Object.entries(s.limit.parts).filter(([k]) => k !== 'advective');
     if (parts.length > 1) {

@@ -3,6 +3,8 @@ import { describe, expect, it, beforeAll } from 'vitest';
 import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { cliTempDir, runCli as run } from '../helpers/cli.js';
+import { gridMesh } from '../helpers/meshes.js';
+import { writeVtu } from '../../src/io/vtu.js';
 
 let tmp = '';
 
@@ -113,6 +115,45 @@ describe('steplens audit (process)', () => {
     expect(bad.code).toBe(2);
     expect(bad.err).toMatch(/euler × central2 is (weakly )?unstable/);
     expect(run(['audit', f, '--time', 'rk4']).err).toMatch(/--time and --space go together/);
+  });
+
+  it('a .pvtu: pieces read on 1 and 2 threads give the same bytes, and the report names the piece of the limit', () => {
+    const dir = fs.mkdtempSync(path.join(tmp, 'pvtu-'));
+    // writeVtu of two small grids with a uniform velocity; the second piece has the smaller cells
+    const grid = (n: number, d: number, x0: number) => {
+      const m = gridMesh(n, n, d, true, x0, 0);
+      m.pointData.push({ name: 'velocity', components: 2, values: new Float64Array(2 * m.nPoints).fill(1) });
+      return m;
+    };
+    fs.writeFileSync(path.join(dir, 'p0.vtu'), writeVtu(grid(4, 1, 0)));
+    fs.writeFileSync(path.join(dir, 'p1.vtu'), writeVtu(grid(8, 0.5, 4)));
+    const pvtu = `<?xml version="1.0"?>
+<VTKFile type="PUnstructuredGrid" version="1.0" byte_order="LittleEndian" header_type="UInt32">
+ <PUnstructuredGrid GhostLevel="0">
+  <PPointData><PDataArray type="Float64" Name="velocity" NumberOfComponents="2"/></PPointData>
+  <PPoints><PDataArray type="Float64" NumberOfComponents="3"/></PPoints>
+  <Piece Source="p0.vtu"/>
+  <Piece Source="p1.vtu"/>
+ </PUnstructuredGrid>
+</VTKFile>
+`;
+    const f = path.join(dir, 'run.pvtu');
+    fs.writeFileSync(f, pvtu);
+    const a = run(['audit', f, '--json', '--threads', '1', '--cells', path.join(dir, 'one.csv')]);
+    const b = run(['audit', f, '--json', '--threads', '2', '--cells', path.join(dir, 'two.csv')]);
+    expect(a.code, a.err).toBe(0);
+    expect(b.code, b.err).toBe(0);
+    expect(fs.readFileSync(path.join(dir, 'one.csv'))).toEqual(fs.readFileSync(path.join(dir, 'two.csv')));
+    const j = JSON.parse(a.out);
+    expect(j.mesh.cells).toBe(2 * 16 + 2 * 64);
+    // cell order is piece order: the first 32 cells come from p0, the limit sits in p1
+    expect(j.limit.cell).toBeGreaterThanOrEqual(32);
+    expect(j.limit.piece.index).toBe(1);
+    expect(j.limit.piece.file).toMatch(/p1\.vtu$/);
+    fs.rmSync(path.join(dir, 'p1.vtu'));
+    const missing = run(['audit', f]);
+    expect(missing.code).toBe(2);
+    expect(missing.err).toMatch(/p1\.vtu/);
   });
 
   it('--help and --version', () => {
