@@ -14,7 +14,7 @@ import { diffusionLimit, fluxLimit } from '../physics/faces.js';
 import { looksGeographic, type CoordinateSystem } from '../geometry/geographic.js';
 import { lengthFactor, velocityFactor } from '../physics/units.js';
 import { meshChecks } from './mesh-checks.js';
-import { quantileSorted, smallestK, sortedFinite } from './stats.js';
+import { quantileOf, quantileSorted, smallestK, sortedFinite } from './stats.js';
 
 export const CAUSE_SMALL = 1;
 export const CAUSE_SHAPE = 2;
@@ -116,6 +116,8 @@ export interface AuditResult {
   dtInscribed: Float64Array;
   dtFlux: Float64Array | null;
   dtDiffusion: Float64Array | null;
+  /** The finite steps in ascending order (shared by the summary and the plan). */
+  sortedDt: Float64Array;
   /** Extra per-cell columns for the CSV/VTU, in order. */
   columns: { name: string; values: Float64Array }[];
   cause: Uint8Array;
@@ -247,14 +249,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
     columns.push({ name: 'dt_diffusion', values: dtDiffusion });
   }
 
-  const hs = sortedFinite(h);
-  const medH = quantileSorted(hs, 0.5);
-  let nMoving = 0;
-  for (let i = 0; i < n; i++) if (speed[i]! > 0) nMoving++;
-  const movingSpeeds = new Float64Array(nMoving);
-  for (let i = 0, j = 0; i < n; i++) if (speed[i]! > 0) movingSpeeds[j++] = speed[i]!;
-  movingSpeeds.sort();
-  const medL = quantileSorted(movingSpeeds, 0.5);
+  const medH = quantileOf(h, 0.5, (v) => v < Infinity);
+  const medL = quantileOf(speed, 0.5, (v) => v > 0);
 
   const cause = new Uint8Array(n);
   const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0, diffusion: 0, duplicate_points: 0, unused_points: 0, isolated_cells: 0 };
@@ -397,5 +393,5 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
     warnings,
     caution: CAUTION,
   };
-  return { mesh, geom, speed, dt, dtInscribed, dtFlux, dtDiffusion, columns, cause, courantAtDt, summary };
+  return { mesh, geom, speed, dt, dtInscribed, dtFlux, dtDiffusion, sortedDt: sorted, columns, cause, courantAtDt, summary };
 }

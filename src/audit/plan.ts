@@ -7,7 +7,7 @@ import { UsageError } from '../mesh/errors.js';
 import type { DataArray } from '../mesh/model.js';
 import { buildEdges } from '../geometry/edges.js';
 import type { AuditResult } from './audit.js';
-import { smallestK, sortedFinite } from './stats.js';
+import { smallestK } from './stats.js';
 import { DEFAULT_GAINS, lowerBound, remeshCurve, type RemeshCurve } from './whatif.js';
 import { groupRegions, REGION_CELL_CAP, type Region } from './regions.js';
 import { sizeField, type SizeFieldSummary } from './sizefield.js';
@@ -98,7 +98,7 @@ export function checkPlanOptions(o: PlanOptions, hasDt: boolean): void {
 }
 
 function remeshPlan(r: AuditResult, gains: number[], top: number): RemeshPlan | null {
-  const sorted = sortedFinite(r.dt);
+  const sorted = r.sortedDt;
   const curve = remeshCurve(sorted, gains);
   if (!curve) return null;
   const k2 = lowerBound(sorted, 2 * curve.reference_dt, curve.zero_cells);

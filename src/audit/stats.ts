@@ -59,3 +59,49 @@ export function smallestK(values: Float64Array, k: number): Int32Array {
   out.sort((a, b) => (values[a]! - values[b]!) || (a - b));
   return Int32Array.from(out);
 }
+
+/**
+ * The k-th smallest of a[lo..hi] (inclusive), in place (Hoare partition around a median of
+ * three; the array is permuted). O(n) on average.
+ */
+function selectInPlace(a: Float64Array, k: number, lo: number, hi: number): number {
+  while (hi > lo) {
+    const mid = (lo + hi) >>> 1;
+    // median of three as the pivot
+    let x = a[lo]!, y = a[mid]!, z = a[hi]!;
+    if (x > y) { const t = x; x = y; y = t; }
+    if (y > z) { y = z; }
+    const pivot = x > y ? x : y;
+    let i = lo, j = hi;
+    while (i <= j) {
+      while (a[i]! < pivot) i++;
+      while (a[j]! > pivot) j--;
+      if (i <= j) { const t = a[i]!; a[i] = a[j]!; a[j] = t; i++; j--; }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k]!;
+  }
+  return a[k]!;
+}
+
+/**
+ * A quantile with the same definition as `quantileSorted` (linear interpolation between the
+ * closest ranks) without sorting: two selections on a copy of the values that pass `keep`.
+ */
+export function quantileOf(values: Float64Array, q: number, keep: (v: number) => boolean): number | null {
+  let n = 0;
+  for (let i = 0; i < values.length; i++) if (keep(values[i]!)) n++;
+  if (n === 0) return null;
+  const a = new Float64Array(n);
+  for (let i = 0, j = 0; i < values.length; i++) { const v = values[i]!; if (keep(v)) a[j++] = v; }
+  const pos = q * (n - 1);
+  const lo = Math.floor(pos);
+  const vlo = selectInPlace(a, lo, 0, n - 1);
+  const t = pos - lo;
+  if (t === 0 || lo + 1 >= n) return vlo;
+  // the next order statistic is the smallest value to the right of rank lo after selection
+  let vhi = Infinity;
+  for (let i = lo + 1; i < n; i++) if (a[i]! < vhi) vhi = a[i]!;
+  return vlo + t * (vhi - vlo);
+}
