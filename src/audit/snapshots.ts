@@ -12,6 +12,11 @@ import { MeshInputError, UsageError } from '../mesh/errors.js';
 import type { Mesh } from '../mesh/model.js';
 
 /** Natural order: digit runs compare as numbers, so "_2" sorts before "_10"; then plain order. */
+/** By file name (natural order), then by the whole path: where the files sit does not reorder them. */
+export function compareFileNames(a: string, b: string): number {
+  return naturalCompare(a.replace(/^.*[\\/]/, ''), b.replace(/^.*[\\/]/, '')) || naturalCompare(a, b);
+}
+
 export function naturalCompare(a: string, b: string): number {
   let i = 0, j = 0;
   while (i < a.length && j < b.length) {
@@ -55,7 +60,7 @@ export interface SnapshotOrder {
 /** By the time stored in the files when every file has one (ties by name), else by name. */
 export function snapshotOrder(files: string[], times: (number | null)[]): SnapshotOrder {
   const idx = files.map((_, k) => k);
-  const byName = (p: number, q: number) => naturalCompare(files[p]!, files[q]!);
+  const byName = (p: number, q: number) => compareFileNames(files[p]!, files[q]!);
   const withTime = times.filter((t) => t !== null).length;
   const warnings: string[] = [];
   if (withTime === files.length && files.length > 0) {

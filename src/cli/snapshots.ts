@@ -6,7 +6,7 @@ import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { runAudit, type AuditResult } from '../audit/audit.js';
 import {
-  DEFAULT_SAFETY, Envelope, checkSameMesh, naturalCompare, precedes, runSummary, snapshotOrder, snapshotSummary,
+  DEFAULT_SAFETY, Envelope, checkSameMesh, compareFileNames, precedes, runSummary, snapshotOrder, snapshotSummary,
   type RunSummary, type SnapshotSummary,
 } from '../audit/snapshots.js';
 import { UsageError } from '../mesh/errors.js';
@@ -81,7 +81,7 @@ export function expandInputs(args: string[]): string[] {
     seen.add(key);
     return true;
   });
-  return files.sort(naturalCompare);
+  return files.sort(compareFileNames);
 }
 
 function safetyOption(values: Record<string, unknown>): number {
