@@ -4,7 +4,8 @@ import * as path from 'node:path';
 import { constants as bufferConstants } from 'node:buffer';
 import { UsageError, MeshInputError } from '../mesh/errors.js';
 
-export function readInput(file: string): Uint8Array {
+/** The file's stats, or a clear error when it does not exist or is a folder. */
+export function inputStat(file: string): fs.Stats {
   let st: fs.Stats;
   try {
     st = fs.statSync(file);
@@ -12,6 +13,11 @@ export function readInput(file: string): Uint8Array {
     throw new UsageError(`${file}: no such file`);
   }
   if (st.isDirectory()) throw new UsageError(`${file}: is a folder, not a mesh file`);
+  return st;
+}
+
+export function readInput(file: string): Uint8Array {
+  const st = inputStat(file);
   if (st.size > bufferConstants.MAX_LENGTH) {
     throw new MeshInputError(`file of ${st.size} bytes is larger than one buffer can hold (${bufferConstants.MAX_LENGTH} bytes)`, { file });
   }

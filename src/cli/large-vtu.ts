@@ -5,6 +5,7 @@
  * handed to readMesh, up to the buffer limit; beyond it they are refused with their size. Node only.
  */
 import * as fs from 'node:fs';
+import { inputStat } from './files.js';
 import { constants as bufferConstants } from 'node:buffer';
 import * as zlib from 'node:zlib';
 import { MeshInputError, UsageError } from '../mesh/errors.js';
@@ -37,13 +38,7 @@ export interface ReadFileOptions {
 }
 
 function openInput(file: string): { fd: number; size: number } {
-  let st: fs.Stats;
-  try {
-    st = fs.statSync(file);
-  } catch {
-    throw new UsageError(`${file}: no such file`);
-  }
-  if (st.isDirectory()) throw new UsageError(`${file}: is a folder, not a mesh file`);
+  const st = inputStat(file);
   return { fd: fs.openSync(file, 'r'), size: st.size };
 }
 
