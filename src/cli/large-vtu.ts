@@ -8,7 +8,7 @@ import * as fs from 'node:fs';
 import { inputStat } from './files.js';
 import { constants as bufferConstants } from 'node:buffer';
 import * as zlib from 'node:zlib';
-import { MeshInputError, UsageError } from '../mesh/errors.js';
+import { MeshInputError } from '../mesh/errors.js';
 import type { Mesh } from '../mesh/model.js';
 import { readMesh } from '../mesh/read.js';
 import { readVtkXml } from '../mesh/vtkxml/index.js';
