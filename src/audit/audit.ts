@@ -127,25 +127,24 @@ export interface AuditResult {
 
 export const VERSION = '0.1.0';
 
+/** Each cause: its bit, its name in the JSON and CSV, its plain words in reports. */
+const CAUSES: readonly [number, string, string][] = [
+  [CAUSE_DEGENERATE, 'degenerate', 'degenerate cell'],
+  [CAUSE_SMALL, 'small', 'small cell'],
+  [CAUSE_SHAPE, 'shape', 'poor shape'],
+  [CAUSE_FAST, 'fast', 'fast flow'],
+  [CAUSE_DIFFUSION, 'diffusion', 'diffusion'],
+];
+
 /** Plain words for a cause bit set. */
 export function describeCause(bits: number): string {
-  const words: string[] = [];
-  if (bits & CAUSE_DEGENERATE) words.push('degenerate cell');
-  if (bits & CAUSE_SMALL) words.push('small cell');
-  if (bits & CAUSE_SHAPE) words.push('poor shape');
-  if (bits & CAUSE_FAST) words.push('fast flow');
-  if (bits & CAUSE_DIFFUSION) words.push('diffusion');
+  const words = CAUSES.filter(([b]) => bits & b).map(([, , w]) => w);
   return words.length ? words.join(' + ') : 'no single cause';
 }
 
-function causeList(bits: number): string[] {
-  const out: string[] = [];
-  if (bits & CAUSE_DEGENERATE) out.push('degenerate');
-  if (bits & CAUSE_SMALL) out.push('small');
-  if (bits & CAUSE_SHAPE) out.push('shape');
-  if (bits & CAUSE_FAST) out.push('fast');
-  if (bits & CAUSE_DIFFUSION) out.push('diffusion');
-  return out;
+/** The names of the causes in a bit set (JSON `cause`, CSV `cause` joined by ';'). */
+export function causeList(bits: number): string[] {
+  return CAUSES.filter(([b]) => bits & b).map(([, n]) => n);
 }
 
 function fmt(x: number): string {

@@ -3,7 +3,7 @@
  * shortest form that parses back to the same double; an unlimited step is written `inf`.
  */
 import type { AuditResult } from '../audit/audit.js';
-import { CAUSE_DEGENERATE, CAUSE_FAST, CAUSE_SHAPE, CAUSE_SMALL } from '../audit/audit.js';
+import { causeList } from '../audit/audit.js';
 import { FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE } from '../geometry/cells.js';
 import { QUAD } from '../mesh/model.js';
 import { MAX_NUMBER_BYTES, writeInteger, writeNumber } from './digits.js';
@@ -23,12 +23,7 @@ function flagText(f: number): string {
 }
 
 function causeText(c: number): string {
-  const parts: string[] = [];
-  if (c & CAUSE_DEGENERATE) parts.push('degenerate');
-  if (c & CAUSE_SMALL) parts.push('small');
-  if (c & CAUSE_SHAPE) parts.push('shape');
-  if (c & CAUSE_FAST) parts.push('fast');
-  return parts.join(';');
+  return causeList(c).join(';');
 }
 
 /** Extra per-cell columns later features add (name → values), written after the standard ones. */

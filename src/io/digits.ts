@@ -92,7 +92,12 @@ export function writeInteger(out: Uint8Array, pos: number, v: number): number {
 /** Write x as `num(x)` would (String(x), or inf / -inf / nan); at most MAX_NUMBER_BYTES bytes. */
 export function writeNumber(out: Uint8Array, pos: number, x: number): number {
   if (x !== x) return writeAscii(out, pos, 'nan');
-  if (x === 0) { out[pos] = 48; return pos + 1; }
+  if (x === 0) {
+    // -0 keeps its sign: the text must read back as the same double
+    if (1 / x < 0) { out[pos] = 45; out[pos + 1] = 48; return pos + 2; }
+    out[pos] = 48;
+    return pos + 1;
+  }
   let p = pos;
   let v = x;
   if (v < 0) { out[p++] = 45; v = -v; }

@@ -1,7 +1,7 @@
 // The per-cell table written into byte buffers must be the text a plain String()-per-value
 // writer gives (written out here as the reference), chunked only between rows.
 import { describe, expect, it } from 'vitest';
-import { runAudit, CAUSE_DEGENERATE, CAUSE_FAST, CAUSE_SHAPE, CAUSE_SMALL, type AuditResult } from '../../src/audit/audit.js';
+import { runAudit, CAUSE_DEGENERATE, CAUSE_DIFFUSION, CAUSE_FAST, CAUSE_SHAPE, CAUSE_SMALL, type AuditResult } from '../../src/audit/audit.js';
 import { cellsCsv, cellsCsvBytes, cellsCsvChunks, CSV_COLUMNS, type ExtraColumns } from '../../src/io/csv.js';
 import { FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE } from '../../src/geometry/cells.js';
 import { QUAD, type Mesh } from '../../src/mesh/model.js';
@@ -11,7 +11,7 @@ function words(bits: number, names: [number, string][]): string {
   return names.filter(([b]) => bits & b).map(([, w]) => w).join(';');
 }
 
-const num = (x: number): string => (x === Infinity ? 'inf' : x === -Infinity ? '-inf' : x !== x ? 'nan' : String(x));
+const num = (x: number): string => (x === Infinity ? 'inf' : x === -Infinity ? '-inf' : x !== x ? 'nan' : Object.is(x, -0) ? '-0' : String(x));
 
 /** The table built with one String() per value. */
 function referenceCsv(r: AuditResult, extra: ExtraColumns): string {
@@ -24,7 +24,7 @@ function referenceCsv(r: AuditResult, extra: ExtraColumns): string {
       num(r.speed[i]!), num(r.dt[i]!), num(g.radiusRatio[i]!), num(g.minAngle[i]!), num(g.maxAngle[i]!), num(g.aspectRatio[i]!),
       num(g.scaledJacobian[i]!), num(g.condition[i]!), num(g.edgeRatio[i]!), num(g.centroidX[i]!), num(g.centroidY[i]!),
       words(g.flags[i]!, [[FLAG_DEGENERATE, 'degenerate'], [FLAG_REPEATED_NODE, 'repeated_node'], [FLAG_INVERTED, 'inverted'], [FLAG_NONCONVEX, 'non_convex']]),
-      words(r.cause[i]!, [[CAUSE_DEGENERATE, 'degenerate'], [CAUSE_SMALL, 'small'], [CAUSE_SHAPE, 'shape'], [CAUSE_FAST, 'fast']]),
+      words(r.cause[i]!, [[CAUSE_DEGENERATE, 'degenerate'], [CAUSE_SMALL, 'small'], [CAUSE_SHAPE, 'shape'], [CAUSE_FAST, 'fast'], [CAUSE_DIFFUSION, 'diffusion']]),
       ...ex.map((c) => num(c.values[i]!))];
     s += row.join(',') + '\n';
   }

@@ -14,7 +14,8 @@ function text(x: number): string {
 }
 
 function reference(x: number): string {
-  return x === Infinity ? 'inf' : x === -Infinity ? '-inf' : x !== x ? 'nan' : String(x);
+  // String() without its one loss: -0 is written "-0" so that it reads back as itself
+  return x === Infinity ? 'inf' : x === -Infinity ? '-inf' : x !== x ? 'nan' : Object.is(x, -0) ? '-0' : String(x);
 }
 
 /** A double from two 32-bit halves (every bit pattern, subnormals and NaNs included). */

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { runAudit } from '../../src/audit/audit.js';
+import { cellsCsv } from '../../src/io/csv.js';
 import { buildEdges } from '../../src/geometry/edges.js';
 import { MeshInputError } from '../../src/mesh/errors.js';
 import { gridMesh, meshOf, vectorField, rng } from '../helpers/meshes.js';
@@ -56,6 +57,11 @@ describe('diffusive limit (two-point face form)', () => {
     const r = runAudit(m, { diffusivity: 0.1 });
     for (let i = 0; i < m.nCells; i++) expect(r.dtDiffusion![i]).toBeCloseTo(0.25 / (4 * 0.1), 13);
     expect(r.summary.limit.dt).toBeCloseTo(0.625, 13);
+    // at rest, diffusion is what limits every cell: the cause says so in the JSON and the CSV
+    expect(r.summary.limit.cause).toContain('diffusion');
+    const lines = cellsCsv(r).trimEnd().split('\n');
+    const col = lines[0]!.split(',').indexOf('cause');
+    for (const line of lines.slice(1)) expect(line.split(',')[col]).toBe('diffusion');
   });
 
   it('the same grid split into right triangles: hand-computed value Δx²/(6ν(1 + 2/√5)) for interior cells', () => {

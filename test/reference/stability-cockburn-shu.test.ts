@@ -2,8 +2,8 @@
  * RKDG CFL numbers against Cockburn & Shu, "Runge–Kutta discontinuous Galerkin methods for
  * convection-dominated problems", J. Sci. Comput. 16(3):173–261 (2001), Table 2.2 (CFL numbers
  * for P^k DG with ν-stage order-ν Runge–Kutta, truncated to three decimals; "*" = not stable).
- * Values: those quoted in our brief, completed from public transcriptions of the table in DG codes
- * (found with the search tool; two independent transcriptions agree).
+ * Values: those quoted in our brief, completed from public copies of the table in DG codes
+ * (found with the search tool; two independent copies agree).
  * ν = 2 is SSP-RK2, ν = 3 SSP-RK3, ν = 4 classical RK4: every ν-stage order-ν method with ν ≤ 4
  * has R(z) = Σ_{j≤ν} z^j/j!, so the table applies to them. The ν = 1 row (forward Euler) is the
  * table's first column: 1 for k = 0, not stable for k ≥ 1.
