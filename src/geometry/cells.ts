@@ -223,6 +223,11 @@ function quad(g: CellGeometry, i: number, ox: number, oy: number, bx: number, by
   g.edgeRatio[i] = lmax / lmin;
 }
 
+/** True when a cell uses one node twice; `d` is the fourth node of a quad, -1 for a triangle. */
+function repeatsNode(a: number, b: number, c: number, d: number): boolean {
+  return a === b || a === c || b === c || (d >= 0 && (a === d || b === d || c === d));
+}
+
 /** Compute geometry for every cell of the mesh, then mark inverted cells. */
 export function computeGeometry(mesh: Mesh, g: CellGeometry = allocGeometry(mesh.nCells), coords: CoordinateSystem = 'planar'): CellGeometry {
   if (coords === 'geographic') computeGeographicRange(mesh, g, 0, mesh.nCells);
@@ -250,11 +255,9 @@ export function computeCellRange(mesh: Mesh, g: CellGeometry, from: number, to: 
     if (types[i] === QUAD) {
       const nd = nodes[s + 3]!;
       const dx = pts[2 * nd]! - ox, dy = pts[2 * nd + 1]! - oy;
-      const rep = na === nb || na === nc || na === nd || nb === nc || nb === nd || nc === nd;
-      quad(g, i, ox, oy, bx, by, cx, cy, dx, dy, rep);
+      quad(g, i, ox, oy, bx, by, cx, cy, dx, dy, repeatsNode(na, nb, nc, nd));
     } else {
-      const rep = na === nb || na === nc || nb === nc;
-      triangle(g, i, ox, oy, bx, by, cx, cy, rep);
+      triangle(g, i, ox, oy, bx, by, cx, cy, repeatsNode(na, nb, nc, -1));
     }
   }
 }
@@ -286,10 +289,9 @@ export function computeGeographicRange(mesh: Mesh, g: CellGeometry, from: number
     g.flags[i] = 0;
     if (quadCell) {
       orthographic(pts[2 * nd]!, pts[2 * nd + 1]!, lon0, lat0, s0);
-      const rep = na === nb || na === nc || na === nd || nb === nc || nb === nd || nc === nd;
-      quad(g, i, ax, ay, bx, by, cx, cy, projected.x - ax, projected.y - ay, rep);
+      quad(g, i, ax, ay, bx, by, cx, cy, projected.x - ax, projected.y - ay, repeatsNode(na, nb, nc, nd));
     } else {
-      triangle(g, i, ax, ay, bx, by, cx, cy, na === nb || na === nc || nb === nc);
+      triangle(g, i, ax, ay, bx, by, cx, cy, repeatsNode(na, nb, nc, -1));
     }
     inverseOrthographic(g.centroidX[i]!, g.centroidY[i]!, lon0, lat0);
     g.centroidX[i] = projected.x;
