@@ -1,10 +1,12 @@
 /**
- * The per-cell pass on its own, in memory, medians after a warm-up: the geometry kernels into
- * arrays already in memory, and the whole pass (geometry + wave speed + limit dt = C·h/λ), on
- * one thread and over THREADS threads (workers kept in a pool between passes). Prints JSON.
+ * The per-cell pass on its own, in memory, medians after a warm-up: the core geometry kernels
+ * (what the step needs: area, perimeter, h, radius ratio, flags) into arrays already in memory,
+ * and the whole pass (core geometry + wave speed + limit dt = C·h/λ), on one thread and over
+ * THREADS threads (workers kept in a pool between passes); then the shape measures (angles,
+ * centroids, Verdict measures), which the audit computes only for what it writes. Prints JSON.
  * Usage: node bench/percell.mjs CELLS THREADS REPEAT
  */
-import { computeCellRange, allocGeometry, markInverted, FLAG_DEGENERATE } from '../dist/geometry/cells.js';
+import { allocCore, allocShape, coreRange, markInverted, shapeRange, FLAG_DEGENERATE } from '../dist/geometry/cells.js';
 import { cellSpeeds } from '../dist/physics/speed.js';
 import { parallelGeometry, WorkerPool } from '../dist/cli/parallel.js';
 import { basinMesh } from './generate.mjs';
@@ -41,13 +43,15 @@ function sharedMesh(m) {
 
 const mesh = sharedMesh(basinMesh({ cells, seed: 3 }));
 const n = mesh.nCells;
-const g = allocGeometry(n);
+const g = allocCore(n);
+const shape = allocShape(n);
 const dt = new Float64Array(n);
 const pool = new WorkerPool(threads - 1);
 let shared = await parallelGeometry(mesh, threads, { pool });
-const geometryOne = await time(() => { computeCellRange(mesh, g, 0, n); markInverted(g); });
+const geometryOne = await time(() => { coreRange(mesh, g, 0, n); markInverted(g); });
 const geometryMany = await time(async () => { shared = await parallelGeometry(mesh, threads, { into: shared, pool }); });
-const passOne = await time(() => { computeCellRange(mesh, g, 0, n); markInverted(g); limit(g, cellSpeeds(mesh).speed, dt); });
+const passOne = await time(() => { coreRange(mesh, g, 0, n); markInverted(g); limit(g, cellSpeeds(mesh).speed, dt); });
+const shapeOne = await time(() => { shapeRange(mesh, shape, 0, n); });
 const passMany = await time(async () => {
   shared = await parallelGeometry(mesh, threads, { into: shared, pool });
   limit(shared, cellSpeeds(mesh).speed, dt);
@@ -57,9 +61,10 @@ const perSecond = (ms) => Math.round(n / (ms / 1000));
 process.stdout.write(JSON.stringify({
   cells: n, threads,
   rows: [
-    ['geometry, 1 thread', geometryOne, perSecond(geometryOne)],
-    [`geometry, ${threads} threads`, geometryMany, perSecond(geometryMany)],
+    ['core geometry, 1 thread', geometryOne, perSecond(geometryOne)],
+    [`core geometry, ${threads} threads`, geometryMany, perSecond(geometryMany)],
     ['pass, 1 thread', passOne, perSecond(passOne)],
     [`pass, ${threads} threads`, passMany, perSecond(passMany)],
+    ['shape measures, 1 thread', shapeOne, perSecond(shapeOne)],
   ],
 }) + '\n');

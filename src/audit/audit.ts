@@ -7,13 +7,14 @@
  */
 import { cellTypeName, QUAD, type Mesh } from '../mesh/model.js';
 import { UsageError } from '../mesh/errors.js';
-import { computeGeometry, FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE, type CellGeometry } from '../geometry/cells.js';
+import { float64s, uint8s } from '../mesh/alloc.js';
+import { centroidOf, computeGeometry, shapeAt, FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE, type CellGeometry } from '../geometry/cells.js';
 import { cellScalar, cellSpeeds, STANDARD_GRAVITY, type WaveModel } from '../physics/speed.js';
 import { buildEdges } from '../geometry/edges.js';
 import { diffusionLimit, fluxLimit } from '../physics/faces.js';
 import { looksGeographic, type CoordinateSystem } from '../geometry/geographic.js';
 import { lengthFactor, velocityFactor } from '../physics/units.js';
-import { meshChecks } from './mesh-checks.js';
+import { meshChecks, type MeshChecks } from './mesh-checks.js';
 import { quantileOf, quantileSorted, smallestK, sortedFinite } from './stats.js';
 
 export const CAUSE_SMALL = 1;
@@ -71,6 +72,8 @@ export interface AuditOptions {
   velocityUnit?: string;
   /** Geometry computed elsewhere (e.g. in parallel); must be computeGeometry's result for this mesh. */
   geometry?: CellGeometry;
+  /** Mesh checks computed elsewhere (meshChecks of this mesh, as read). */
+  checks?: MeshChecks;
 }
 
 export interface WorstCell {
@@ -178,7 +181,18 @@ function finiteOrNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;
 }
 
-export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
+/** An audit without its mesh checks yet: finishAudit completes it. */
+export interface PendingAudit {
+  result: AuditResult;
+  checked: boolean;
+}
+
+/**
+ * Everything of the audit but the mesh checks (duplicate points, unused points, isolated cells),
+ * which need only the mesh and may be computed meanwhile elsewhere; finishAudit adds them.
+ * runAudit does both.
+ */
+export function startAudit(mesh: Mesh, options: AuditOptions = {}): PendingAudit {
   const C = options.courant ?? 1;
   if (!(C > 0) || !Number.isFinite(C)) throw new UsageError(`the Courant number must be a positive number, got ${C}`);
   const top = options.top ?? 10;
@@ -211,7 +225,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const speed = sp.speed;
   const h = geom.inradius;
   const flags = geom.flags;
-  const dtInscribed = new Float64Array(n);
+  const dtInscribed = float64s(n);
   let unlimited = 0;
   for (let i = 0; i < n; i++) {
     if (flags[i]! & FLAG_DEGENERATE) { dtInscribed[i] = 0; continue; }
@@ -233,7 +247,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const dtAdvective = dtFlux ?? dtInscribed;
   let dt = dtAdvective;
   if (dtDiffusion) {
-    dt = new Float64Array(n);
+    dt = float64s(n);
     for (let i = 0; i < n; i++) {
       const a = dtAdvective[i]!, d = dtDiffusion[i]!;
       // 1/dt = 1/dt_adv + 1/dt_diff (exact for 1-D upwind with FTCS diffusion: c + 2d ≤ 1)
@@ -251,12 +265,8 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   const medH = quantileOf(h, 0.5, (v) => v < Infinity);
   const medL = quantileOf(speed, 0.5, (v) => v > 0);
 
-  const cause = new Uint8Array(n);
+  const cause = uint8s(n);
   const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0, diffusion: 0, duplicate_points: 0, unused_points: 0, isolated_cells: 0 };
-  const checks = meshChecks(mesh);
-  counts.duplicate_points = checks.duplicatePoints;
-  counts.unused_points = checks.unusedPoints;
-  counts.isolated_cells = checks.isolatedCells;
   let nTri = 0, nQuad = 0;
   for (let i = 0; i < n; i++) {
     const f = flags[i]!;
@@ -281,16 +291,17 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   for (let k = 0; k < worstIdx.length; k++) {
     const i = worstIdx[k]!;
     const isQuad = mesh.cellTypes[i] === QUAD;
+    const shape = shapeAt(geom, i);
     worst.push({
       cell: i,
       dt: finiteOrNull(dt[i]!),
       type: cellTypeName(mesh.cellTypes[i]!),
-      centroid: [geom.centroidX[i]!, geom.centroidY[i]!],
+      centroid: [shape.centroidX, shape.centroidY],
       area: geom.area[i]!,
       inradius: h[i]!,
       speed: speed[i]!,
       radius_ratio: finiteOrNull(geom.radiusRatio[i]!),
-      min_angle: geom.minAngle[i]!,
+      min_angle: shape.minAngle,
       cause: causeList(cause[i]!),
       why: explain(i, cause[i]!, geom, speed, medH, medL, isQuad),
     });
@@ -347,12 +358,6 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
   if (options.coords === undefined && looksGeographic(mesh.points, medL)) {
     warnings.push('coordinates look like degrees of longitude/latitude; pass --coords geographic or --coords planar');
   }
-  if (counts.degenerate > 0) warnings.push(`${counts.degenerate} degenerate cell(s) (zero area or a repeated node): their step is 0 and they cap the run until fixed`);
-  if (counts.inverted > 0) warnings.push(`${counts.inverted} cell(s) are inverted (node order opposite to the rest of the mesh)`);
-  if (counts.non_convex > 0) warnings.push(`${counts.non_convex} quad(s) are non-convex or self-intersecting`);
-  if (counts.duplicate_points > 0) warnings.push(`${counts.duplicate_points} point(s) repeat the coordinates of another point: cells on either side may not be connected`);
-  if (counts.isolated_cells > 0 && n > 1) warnings.push(`${counts.isolated_cells} cell(s) share no edge with any other cell`);
-  if (n > 0 && unlimited === n) warnings.push('the flow is at rest everywhere: no cell limits the step');
 
   const q = (p: number) => quantileSorted(sorted, p);
   const lim = limitCell >= 0 ? limitCell : null;
@@ -376,7 +381,7 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
       cell: limitDt === null ? null : lim,
       courant: C,
       courant_source: options.courantSource ?? (options.courant === undefined ? 'default: first-order upwind with forward Euler' : 'given with --courant'),
-      centroid: limitDt === null || lim === null ? null : [geom.centroidX[lim]!, geom.centroidY[lim]!],
+      centroid: limitDt === null || lim === null ? null : centroidOf(geom, lim),
       cause: limitDt === null || lim === null ? [] : causeList(cause[lim]!),
       why: limitDt === null || lim === null ? null : explain(lim, cause[lim]!, geom, speed, medH, medL, mesh.cellTypes[lim] === QUAD),
       length: lengthRule,
@@ -392,5 +397,31 @@ export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
     warnings,
     caution: CAUTION,
   };
-  return { mesh, geom, speed, dt, dtInscribed, dtFlux, dtDiffusion, sortedDt: sorted, columns, cause, courantAtDt, summary };
+  return { result: { mesh, geom, speed, dt, dtInscribed, dtFlux, dtDiffusion, sortedDt: sorted, columns, cause, courantAtDt, summary }, checked: false };
+}
+
+/**
+ * The summary's mesh-hygiene counts and its cell-level warnings, once the mesh checks are in
+ * (they may run on another thread meanwhile: see startAudit).
+ */
+export function finishAudit(pending: PendingAudit, checks: MeshChecks): AuditResult {
+  if (pending.checked) throw new Error('finishAudit: this audit is finished already');
+  pending.checked = true;
+  const r = pending.result;
+  const { counts, warnings } = r.summary;
+  const n = r.mesh.nCells;
+  counts.duplicate_points = checks.duplicatePoints;
+  counts.unused_points = checks.unusedPoints;
+  counts.isolated_cells = checks.isolatedCells;
+  if (counts.degenerate > 0) warnings.push(`${counts.degenerate} degenerate cell(s) (zero area or a repeated node): their step is 0 and they cap the run until fixed`);
+  if (counts.inverted > 0) warnings.push(`${counts.inverted} cell(s) are inverted (node order opposite to the rest of the mesh)`);
+  if (counts.non_convex > 0) warnings.push(`${counts.non_convex} quad(s) are non-convex or self-intersecting`);
+  if (counts.duplicate_points > 0) warnings.push(`${counts.duplicate_points} point(s) repeat the coordinates of another point: cells on either side may not be connected`);
+  if (counts.isolated_cells > 0 && n > 1) warnings.push(`${counts.isolated_cells} cell(s) share no edge with any other cell`);
+  if (n > 0 && counts.unlimited === n) warnings.push('the flow is at rest everywhere: no cell limits the step');
+  return r;
+}
+
+export function runAudit(mesh: Mesh, options: AuditOptions = {}): AuditResult {
+  return finishAudit(startAudit(mesh, options), options.checks ?? meshChecks(mesh));
 }

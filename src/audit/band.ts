@@ -10,7 +10,7 @@
  * a_i > hi (b_i > (C/C_min)·hi: much larger or slower than the cells that set the step) stay
  * below C_min at every stable step, and the mesh needs grading between them.
  */
-import type { CellGeometry } from '../geometry/cells.js';
+import { centroidOf, type CellGeometry } from '../geometry/cells.js';
 import { smallestK } from './stats.js';
 
 export interface BandCell {
@@ -52,7 +52,7 @@ function listCells(order: Int32Array, X: number, geom: CellGeometry, speed: Floa
   for (let k = 0; k < order.length; k++) {
     const c = order[k]!;
     const h = geom.inradius[c]!;
-    out.push({ cell: c, courant: (X * speed[c]!) / h, inradius: h, speed: speed[c]!, centroid: [geom.centroidX[c]!, geom.centroidY[c]!] });
+    out.push({ cell: c, courant: (X * speed[c]!) / h, inradius: h, speed: speed[c]!, centroid: centroidOf(geom, c) });
   }
   return out;
 }

@@ -3,8 +3,8 @@
  * points no cell uses, and cells that share no edge with any other cell.
  *
  * Flat typed arrays and O(n) work whatever the mesh: coincident points through a hash table of
- * point indices, shared edges through two stable counting-sort passes over the half-edges (no
- * per-node scans, so a node shared by a million cells costs no more than any other).
+ * point indices, shared edges through buckets of half-edges by their smaller node (a node shared
+ * by a million cells costs no more than any other).
  */
 import type { Mesh } from '../mesh/model.js';
 
@@ -17,37 +17,26 @@ export interface MeshChecks {
   isolatedCells: number;
 }
 
-/**
- * One stable counting-sort pass: `order` (a permutation of items) is rearranged into `out` by
- * `digit[item]` in [0, nBuckets). Returns false, leaving `out` untouched, when every item has the
- * same digit (the pass would not change the order).
- */
-function countingPass(order: Int32Array, out: Int32Array, digit: Int32Array, count: Int32Array, nBuckets: number): boolean {
-  const n = order.length;
-  count.fill(0, 0, nBuckets + 1);
-  for (let k = 0; k < n; k++) count[digit[order[k]!]! + 1]!++;
-  if (n === 0 || count[digit[order[0]!]! + 1] === n) return false;
-  for (let b = 0; b < nBuckets; b++) count[b + 1]! += count[b]!;
-  for (let k = 0; k < n; k++) {
-    const i = order[k]!;
-    out[count[digit[i]!]!++] = i;
+const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+const HI = LITTLE_ENDIAN ? 1 : 0;
+
+/** The four 32-bit words of point p's (x, y), with -0 read as +0, into `key`. */
+function pointKey(w: Uint32Array, p: number, key: Uint32Array): void {
+  for (let k = 0; k < 2; k++) {
+    const lo = w[4 * p + 2 * k + 1 - HI]!;
+    let hi = w[4 * p + 2 * k + HI]!;
+    if (hi === 0x80000000 && lo === 0) hi = 0;
+    key[2 * k] = lo;
+    key[2 * k + 1] = hi;
   }
-  return true;
 }
 
-/** 0..n-1. */
-function identity(n: number): Int32Array {
-  const a = new Int32Array(n);
-  for (let i = 0; i < n; i++) a[i] = i;
-  return a;
-}
-
-/** Mixes the four 32-bit words of a point's (x, y) into a table slot. */
-function slot(w: Uint32Array, p: number, mask: number): number {
-  let h = Math.imul(w[p]! ^ 0x9e3779b9, 0x85ebca6b);
-  h = Math.imul(h ^ (h >>> 13) ^ w[p + 1]!, 0xc2b2ae35);
-  h = Math.imul(h ^ (h >>> 16) ^ w[p + 2]!, 0x85ebca6b);
-  h = Math.imul(h ^ (h >>> 13) ^ w[p + 3]!, 0xc2b2ae35);
+/** Mixes the four 32-bit words of a point key into a table slot. */
+function slot(k: Uint32Array, mask: number): number {
+  let h = Math.imul(k[0]! ^ 0x9e3779b9, 0x85ebca6b);
+  h = Math.imul(h ^ (h >>> 13) ^ k[1]!, 0xc2b2ae35);
+  h = Math.imul(h ^ (h >>> 16) ^ k[2]!, 0x85ebca6b);
+  h = Math.imul(h ^ (h >>> 13) ^ k[3]!, 0xc2b2ae35);
   return (h ^ (h >>> 16)) & mask;
 }
 
@@ -58,22 +47,22 @@ function slot(w: Uint32Array, p: number, mask: number): number {
 function countDuplicatePoints(mesh: Mesh): number {
   const n = mesh.nPoints;
   if (n < 2) return 0;
-  const xy = new Float64Array(2 * n);
-  for (let k = 0; k < 2 * n; k++) xy[k] = mesh.points[k]! + 0;
-  const w = new Uint32Array(xy.buffer);
+  const pts = mesh.points;
+  const w = new Uint32Array(pts.buffer, pts.byteOffset, 4 * n);
   let cap = 16;
   while (cap < 2 * n) cap *= 2;
   const table = new Int32Array(cap).fill(-1);
   const mask = cap - 1;
+  const kp = new Uint32Array(4), kq = new Uint32Array(4);
   let dup = 0;
   for (let i = 0; i < n; i++) {
-    const p = 4 * i;
-    let h = slot(w, p, mask);
+    pointKey(w, i, kp);
+    let h = slot(kp, mask);
     for (;;) {
       const j = table[h]!;
       if (j < 0) { table[h] = i; break; }
-      const q = 4 * j;
-      if (w[p] === w[q] && w[p + 1] === w[q + 1] && w[p + 2] === w[q + 2] && w[p + 3] === w[q + 3]) { dup++; break; }
+      pointKey(w, j, kq);
+      if (kp[0] === kq[0] && kp[1] === kq[1] && kp[2] === kq[2] && kp[3] === kq[3]) { dup++; break; }
       h = (h + 1) & mask;
     }
   }
@@ -91,48 +80,48 @@ function countUnusedPoints(mesh: Mesh): number {
 }
 
 /**
- * Cells with no side in common with another cell. Half-edges are grouped by node pair (sorted by
- * the larger node, then stably by the smaller); a group with two or more cells links them all.
- * A collapsed side (both ends one node) is no edge; a non-manifold edge (three cells) is fine.
+ * Cells with no side in common with another cell. Half-edges are put in buckets by their smaller
+ * node (a counting sort); inside a bucket, the half-edges with the same larger node are one edge,
+ * and an edge held by two or more cells links them all. A collapsed side (both ends one node) is
+ * no edge; a non-manifold edge (three cells) is fine.
  */
 function countIsolatedCells(mesh: Mesh): number {
   const { nCells, nPoints, cellOffsets: off, cellNodes: nodes } = mesh;
-  const total = off[nCells]!;
-  const lo = new Int32Array(total);
-  const hi = new Int32Array(total);
-  const cell = new Int32Array(total);
-  let m = 0;
+  const start = new Int32Array(nPoints + 1);
+  for (let c = 0; c < nCells; c++) {
+    const s = off[c]!, e = off[c + 1]!;
+    for (let k = s; k < e; k++) {
+      const a = nodes[k]!, b = nodes[k + 1 < e ? k + 1 : s]!;
+      if (a !== b) start[(a < b ? a : b) + 1]!++;
+    }
+  }
+  for (let p = 0; p < nPoints; p++) start[p + 1]! += start[p]!;
+  const m = start[nPoints]!;
+  // per bucket entry: the larger node and the cell
+  const other = new Int32Array(m);
+  const cellOf = new Int32Array(m);
+  const fill = start.slice(0, nPoints);
   for (let c = 0; c < nCells; c++) {
     const s = off[c]!, e = off[c + 1]!;
     for (let k = s; k < e; k++) {
       const a = nodes[k]!, b = nodes[k + 1 < e ? k + 1 : s]!;
       if (a === b) continue;
-      lo[m] = a < b ? a : b;
-      hi[m] = a < b ? b : a;
-      cell[m] = c;
-      m++;
+      const j = fill[a < b ? a : b]!++;
+      other[j] = a < b ? b : a;
+      cellOf[j] = c;
     }
   }
-  const count = new Int32Array(nPoints + 1);
-  let order: Int32Array = identity(m);
-  let spare: Int32Array = new Int32Array(m);
-  for (const key of [hi, lo]) {
-    if (!countingPass(order, spare, key.subarray(0, m), count, nPoints)) continue;
-    const t = order;
-    order = spare;
-    spare = t;
-  }
+  // per larger node q, within the bucket of p: the first cell seen on edge (p, q) (stamped by p)
+  const stamp = fill.fill(-1);
+  const firstCell = new Int32Array(nPoints);
   const linked = new Uint8Array(nCells);
-  for (let g = 0; g < m; ) {
-    const first = order[g]!;
-    let end = g + 1;
-    let shared = false;
-    while (end < m && lo[order[end]!] === lo[first] && hi[order[end]!] === hi[first]) {
-      if (cell[order[end]!] !== cell[first]) shared = true;
-      end++;
+  for (let p = 0; p < nPoints; p++) {
+    for (let j = start[p]!, e = start[p + 1]!; j < e; j++) {
+      const q = other[j]!, c = cellOf[j]!;
+      if (stamp[q] !== p) { stamp[q] = p; firstCell[q] = c; continue; }
+      const c0 = firstCell[q]!;
+      if (c0 !== c) { linked[c] = 1; linked[c0] = 1; }
     }
-    if (shared) for (let k = g; k < end; k++) linked[cell[order[k]!]!] = 1;
-    g = end;
   }
   let isolated = 0;
   for (let c = 0; c < nCells; c++) if (linked[c] === 0) isolated++;

@@ -9,6 +9,7 @@
 import type { AuditResult, AuditSummary } from './audit.js';
 import { CAUTION, VERSION } from './audit.js';
 import { MeshInputError, UsageError } from '../mesh/errors.js';
+import { centroidOf } from '../geometry/cells.js';
 import type { Mesh } from '../mesh/model.js';
 
 /** Natural order: digit runs compare as numbers, so "_2" sorts before "_10"; then plain order. */
@@ -340,7 +341,7 @@ export function runSummary(first: AuditSummary, snaps: SnapshotSummary[], env: E
       cell: lim.cell,
       snapshot: k,
       time: k === null ? null : snaps[k]!.time,
-      centroid: lim.cell === null ? null : [base.geom.centroidX[lim.cell]!, base.geom.centroidY[lim.cell]!],
+      centroid: lim.cell === null ? null : centroidOf(base.geom, lim.cell),
     },
     limiting_cells: limitingCells(snaps),
     schedule: stepSchedule(times, snaps.map((s) => s.limit.dt), safety),

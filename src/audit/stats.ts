@@ -1,5 +1,66 @@
 /** Small statistics helpers over typed arrays (no per-value objects). */
 
+const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
+/** Index of the low and high 32-bit word of a double in a Uint32Array view. */
+const LO = LITTLE_ENDIAN ? 0 : 1;
+const HI = 1 - LO;
+const SIGN = 0x80000000;
+
+/**
+ * Turn the doubles of `w` (a Uint32Array view, two words per double) into keys whose unsigned
+ * order is the numeric order (-0 before +0; NaN must not occur): flip every bit of a negative,
+ * the sign bit of the rest. `back` undoes it.
+ */
+function toKeys(w: Uint32Array, n: number, back: boolean): void {
+  for (let i = 0; i < n; i++) {
+    const h = w[2 * i + HI]!;
+    const negative = back ? (h & SIGN) === 0 : (h & SIGN) !== 0;
+    if (negative) { w[2 * i + HI] = ~h >>> 0; w[2 * i + LO] = ~w[2 * i + LO]! >>> 0; } else w[2 * i + HI] = (h ^ SIGN) >>> 0;
+  }
+}
+
+/**
+ * Sort doubles (no NaN) in place in ascending order, as Float64Array.prototype.sort does, by a
+ * least-significant-digit radix sort on their bits: four stable passes of 16 bits, a pass skipped
+ * when every value has the same digit there. O(n) with one scratch array of n doubles.
+ */
+export function radixSort(a: Float64Array): Float64Array {
+  const n = a.length;
+  if (n < 2048) return a.sort();
+  let src: Uint32Array = new Uint32Array(a.buffer, a.byteOffset, 2 * n);
+  let dst: Uint32Array = new Uint32Array(2 * n);
+  toKeys(src, n, false);
+  const count = new Int32Array(4 * 65536);
+  for (let i = 0; i < n; i++) {
+    const lo = src[2 * i + LO]!, hi = src[2 * i + HI]!;
+    count[lo & 0xffff]!++;
+    count[65536 + (lo >>> 16)]!++;
+    count[131072 + (hi & 0xffff)]!++;
+    count[196608 + (hi >>> 16)]!++;
+  }
+  for (let pass = 0; pass < 4; pass++) {
+    const base = pass * 65536;
+    const word = pass < 2 ? LO : HI;
+    const shift = pass % 2 === 0 ? 0 : 16;
+    // one digit for every value: this pass would not change the order
+    const first = ((src[word]! >>> shift) & 0xffff) + base;
+    if (count[first] === n) continue;
+    let sum = 0;
+    for (let d = base; d < base + 65536; d++) { const c = count[d]!; count[d] = sum; sum += c; }
+    for (let i = 0; i < n; i++) {
+      const w0 = src[2 * i]!, w1 = src[2 * i + 1]!;
+      const key = word === 0 ? w0 : w1;
+      const j = count[base + ((key >>> shift) & 0xffff)]!++;
+      dst[2 * j] = w0;
+      dst[2 * j + 1] = w1;
+    }
+    const t = src; src = dst; dst = t;
+  }
+  toKeys(src, n, true);
+  if (src.buffer !== a.buffer) a.set(new Float64Array(src.buffer, 0, n));
+  return a;
+}
+
 /** Sorted copy of the finite values of `a` (NaN never occurs in our arrays; Infinity is left out). */
 export function sortedFinite(a: Float64Array): Float64Array {
   let n = 0;
@@ -7,7 +68,7 @@ export function sortedFinite(a: Float64Array): Float64Array {
   const out = new Float64Array(n);
   let j = 0;
   for (let i = 0; i < a.length; i++) { const v = a[i]!; if (v < Infinity) out[j++] = v; }
-  return out.sort();
+  return radixSort(out);
 }
 
 /** Quantile of sorted values by linear interpolation between closest ranks (q in [0, 1]). */
@@ -85,23 +146,51 @@ function selectInPlace(a: Float64Array, k: number, lo: number, hi: number): numb
   return a[k]!;
 }
 
+const one = new Float64Array(1);
+const oneWords = new Uint32Array(one.buffer);
+
+/** The top 16 bits of v's order key (see toKeys). */
+function topDigit(v: number): number {
+  one[0] = v;
+  const h = oneWords[HI]!;
+  return (h & SIGN) !== 0 ? (~h >>> 16) & 0xffff : (h ^ SIGN) >>> 16;
+}
+
+/**
+ * The k-th smallest (0-based) of the n values of `values` that pass `keep`: a histogram of the
+ * values' top 16 key bits finds the bucket that holds rank k; only that bucket's values are
+ * copied and searched. O(n) without a copy of every value.
+ */
+function kthKept(values: Float64Array, keep: (v: number) => boolean, k: number): number {
+  const count = new Int32Array(65536);
+  for (let i = 0; i < values.length; i++) { const v = values[i]!; if (keep(v)) count[topDigit(v)]!++; }
+  let below = 0, bucket = 0;
+  while (below + count[bucket]! <= k) below += count[bucket++]!;
+  const a = new Float64Array(count[bucket]!);
+  for (let i = 0, j = 0; i < values.length; i++) { const v = values[i]!; if (keep(v) && topDigit(v) === bucket) a[j++] = v; }
+  return selectInPlace(a, k - below, 0, a.length - 1);
+}
+
 /**
  * A quantile with the same definition as `quantileSorted` (linear interpolation between the
- * closest ranks) without sorting: two selections on a copy of the values that pass `keep`.
+ * closest ranks) without sorting: order statistics by selection.
  */
 export function quantileOf(values: Float64Array, q: number, keep: (v: number) => boolean): number | null {
   let n = 0;
   for (let i = 0; i < values.length; i++) if (keep(values[i]!)) n++;
   if (n === 0) return null;
-  const a = new Float64Array(n);
-  for (let i = 0, j = 0; i < values.length; i++) { const v = values[i]!; if (keep(v)) a[j++] = v; }
   const pos = q * (n - 1);
   const lo = Math.floor(pos);
-  const vlo = selectInPlace(a, lo, 0, n - 1);
+  const vlo = kthKept(values, keep, lo);
   const t = pos - lo;
   if (t === 0 || lo + 1 >= n) return vlo;
-  // the next order statistic is the smallest value to the right of rank lo after selection
-  let vhi = Infinity;
-  for (let i = lo + 1; i < n; i++) if (a[i]! < vhi) vhi = a[i]!;
+  // the next order statistic: vlo again when more values equal it, else the smallest above it
+  let atMost = 0, vhi = Infinity;
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i]!;
+    if (!keep(v)) continue;
+    if (v <= vlo) atMost++; else if (v < vhi) vhi = v;
+  }
+  if (atMost > lo + 1) vhi = vlo;
   return vlo + t * (vhi - vlo);
 }

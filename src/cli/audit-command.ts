@@ -1,16 +1,18 @@
 /** `steplens audit FILE [options]` */
 import { readMesh } from '../mesh/read.js';
 import type { DataArray } from '../mesh/model.js';
-import { runAudit, type AuditOptions, type AuditResult } from '../audit/audit.js';
+import { finishAudit, runAudit, startAudit, type AuditOptions, type AuditResult } from '../audit/audit.js';
 import { UsageError } from '../mesh/errors.js';
 import { WAVE_MODELS, type WaveModel } from '../physics/speed.js';
 import { toJson } from '../io/format.js';
+import { csvColumnSet } from '../io/csv.js';
+import { allocateShared } from '../mesh/alloc.js';
 import { writeVtu } from '../io/vtu.js';
 import { parse, numberOption, type OptionSpec } from './args.js';
 import { analyseScheme, builtInTableau, parseTableau, TIME_INTEGRATORS, type Tableau } from '../stability/index.js';
 import { readInput, writeOutput, writeBytes, writeText } from './files.js';
 import { readMeshFile } from './large-vtu.js';
-import { parallelGeometry, readMeshParallel, threadsOption } from './parallel.js';
+import { meshChecksOnWorker, MIN_CELLS_PER_THREAD, parallelGeometry, readMeshParallel, threadsOption } from './parallel.js';
 import { writeCellsCsv } from './parallel-csv.js';
 import { pieceOfCell } from '../mesh/vtkxml/pvtu.js';
 import { renderReport } from './report.js';
@@ -48,7 +50,10 @@ physics
                         combines 1/dt = 1/dt_adv + 1/dt_diff
 outputs
   --json                print only the JSON summary on stdout
-  --cells FILE.csv      per-cell table
+  --cells FILE.csv      per-cell table: cell, type, area, perimeter, inradius, speed, dt,
+                        radius_ratio, min_angle, centroid, flags, cause
+  --cell-columns SET    standard (default) or all: adds circumradius, max_angle,
+                        aspect_ratio, scaled_jacobian, condition, edge_ratio
   --vtu FILE.vtu        the mesh with every per-cell result as cell data
   --top N               number of worst cells listed (default 10)
   --fail-below DT       exit 3 when the largest stable step is below DT seconds
@@ -85,6 +90,7 @@ const SPEC: OptionSpec = {
   gains: { type: 'string' }, 'target-dt': { type: 'string' }, 'size-field': { type: 'string' }, lts: { type: 'boolean' },
   'lts-levels': { type: 'string' }, duration: { type: 'string' }, 'cell-step-cost': { type: 'string' },
   'courant-min': { type: 'string' }, 'suggest-dt': { type: 'boolean' }, 'band-share': { type: 'string' }, safety: { type: 'string' }, threads: { type: 'string' },
+  'cell-columns': { type: 'string' },
 };
 
 /** The decision options (remeshing, size field, local time stepping, run cost, Courant band). */
@@ -199,7 +205,8 @@ function keepInputArrays(input: DataArray[], ours: DataArray[]): DataArray[] {
 export function writeResults(r: AuditResult, values: Record<string, unknown>, inputs: string[], plan?: Plan, threads = 1): void {
   if (values.cells !== undefined) {
     const out = String(values.cells);
-    writeOutput(out, inputs, (fd) => writeCellsCsv(fd, r, plan?.cellColumns ?? [], threads));
+    const set = csvColumnSet(values['cell-columns']);
+    writeOutput(out, inputs, (fd) => writeCellsCsv(fd, r, plan?.cellColumns ?? [], threads, {}, set));
   }
   if (values['size-field'] !== undefined && plan?.nodeSize) {
     const sizes = plan.nodeSize;
@@ -242,17 +249,26 @@ export async function auditCommand(args: string[], io: CliIo): Promise<number> {
   const options = auditOptionsFrom(values, file);
   const planOptions = planOptionsFrom(values);
   const threads = threadsOption(values.threads);
+  csvColumnSet(values['cell-columns']);
+  // threads read the mesh and the per-cell results where they are, without copies
+  allocateShared(threads > 1);
   io.progress?.(`reading ${file}`);
   const inputs: string[] = [];
   const mesh = threads > 1 ? await readMeshParallel(file, threads, { onFile: (f) => inputs.push(f) }) : loadMesh(file, inputs);
   io.progress?.(`auditing ${mesh.nCells} cells`);
-  if (threads > 1) {
+  let result: AuditResult;
+  if (threads > 1 && mesh.nCells >= 2 * MIN_CELLS_PER_THREAD) {
     options.geometry = await parallelGeometry(mesh, threads, {
       ...(options.coords !== undefined ? { coords: options.coords } : {}),
       ...(options.lengthUnit !== undefined ? { lengthUnit: options.lengthUnit } : {}),
     });
+    // the mesh checks on another thread while this one works out the steps
+    const checks = meshChecksOnWorker(mesh);
+    const pending = startAudit(mesh, options);
+    result = finishAudit(pending, await checks);
+  } else {
+    result = runAudit(mesh, options);
   }
-  const result = runAudit(mesh, options);
   if (/\.p(vtu|vtp)$/i.test(file) && result.summary.limit.cell !== null) {
     const piece = pieceOfCell(result.mesh, result.summary.limit.cell);
     // inputs: the .pvtu first, then its pieces in order

@@ -8,7 +8,7 @@
 import * as fs from 'node:fs';
 import { isMainThread, Worker, workerData } from 'node:worker_threads';
 import type { AuditResult } from '../audit/audit.js';
-import { csvTable, writeCsvRows, type CsvTable, type ExtraColumns } from '../io/csv.js';
+import { csvTable, writeCsvRows, type CsvColumnSet, type CsvTable, type ExtraColumns } from '../io/csv.js';
 import { MIN_CELLS_PER_THREAD, shared } from './parallel.js';
 
 const WORKER_MARK = 'steplens-csv';
@@ -77,7 +77,8 @@ function sharedTable(t: CsvTable): CsvTable {
   return {
     ...t,
     types: shared(t.types.subarray(0, t.nCells), u8),
-    columns: t.columns.map((a) => shared(a, f64)),
+    columns: t.columns.map((a) => (typeof a === 'string' ? a : shared(a, f64))),
+    shape: t.shape && { ...t.shape, points: shared(t.shape.points, f64), offsets: shared(t.shape.offsets, i32), nodes: shared(t.shape.nodes, i32) },
     flags: shared(t.flags, u8),
     cause: shared(t.cause, u8),
     extras: t.extras.map((a) => (a instanceof Int32Array ? shared(a, i32) : shared(a, f64))),
@@ -100,11 +101,11 @@ function writeAll(fd: number, b: Uint8Array): void {
  * writeOutput. Threads are used when the geometry came from parallelGeometry (its arrays are
  * shared: nothing big is copied) and the mesh is large; otherwise this thread writes alone.
  */
-export function writeCellsCsv(fd: number, r: AuditResult, extra: ExtraColumns, threads: number, options: ParallelCsvOptions = {}): void {
-  const t = csvTable(r, extra);
+export function writeCellsCsv(fd: number, r: AuditResult, extra: ExtraColumns, threads: number, options: ParallelCsvOptions = {}, set: CsvColumnSet = 'standard'): void {
+  const t = csvTable(r, extra, set);
   const enc = new TextEncoder();
   const nBlocks = Math.ceil(t.nCells / CSV_BLOCK_ROWS);
-  const useThreads = threads > 1 && t.nCells >= 2 * MIN_CELLS_PER_THREAD && t.columns.every((a) => a === r.speed || a === r.dt || isShared(a));
+  const useThreads = threads > 1 && t.nCells >= 2 * MIN_CELLS_PER_THREAD && t.columns.every((a) => typeof a === 'string' || a === r.speed || a === r.dt || isShared(a));
   const slotBytes = CSV_BLOCK_ROWS * t.rowMax;
   if (!useThreads) {
     const buf = new Uint8Array(slotBytes);

@@ -10,13 +10,14 @@
 import { availableParallelism } from 'node:os';
 import * as fs from 'node:fs';
 import { isMainThread, parentPort, Worker, workerData } from 'node:worker_threads';
-import { allocGeometry, computeCellRange, computeGeographicRange, computeGeometry, markInverted, type CellGeometry } from '../geometry/cells.js';
+import { allocCore, coreRange, deferGeometry, markInverted, type CellGeometry, type CoreGeometry } from '../geometry/cells.js';
 import type { CoordinateSystem } from '../geometry/geographic.js';
 import { MeshInputError, SteplensError, UsageError, type ErrorLocation } from '../mesh/errors.js';
 import type { Mesh } from '../mesh/model.js';
 import { parseXmlHead } from '../mesh/vtkxml/xml.js';
 import { joinPieces, missingPiece, pieceSources, PARALLEL_KINDS, type PieceSource } from '../mesh/vtkxml/pvtu.js';
 import { lengthFactor } from '../physics/units.js';
+import { meshChecks, type MeshChecks } from '../audit/mesh-checks.js';
 import { readMeshFile, type ReadFileOptions } from './large-vtu.js';
 
 /** Fewer cells than this per thread: a worker's start-up costs more than it saves. */
@@ -47,15 +48,11 @@ export function shared<T extends Shareable>(a: T, make: (b: SharedArrayBuffer, n
   return out;
 }
 
-/** A CellGeometry whose arrays live in one SharedArrayBuffer. */
-function sharedGeometry(n: number): CellGeometry {
-  const template = allocGeometry(0) as unknown as Record<string, unknown>;
-  const floats = Object.keys(template).filter((k) => template[k] instanceof Float64Array);
-  const sab = new SharedArrayBuffer(n * (8 * floats.length + 1));
-  const g: Record<string, unknown> = { ...template };
-  floats.forEach((k, j) => { g[k] = new Float64Array(sab, 8 * n * j, n); });
-  g.flags = new Uint8Array(sab, 8 * n * floats.length, n);
-  return g as unknown as CellGeometry;
+/** Core geometry arrays (see coreRange) in one SharedArrayBuffer. */
+function sharedCore(n: number): CoreGeometry {
+  const sab = new SharedArrayBuffer(n * (8 * 5 + 1));
+  let k = 0;
+  return allocCore(n, (m) => new Float64Array(sab, 8 * m * k++, m), new Uint8Array(sab, 8 * n * 5, n));
 }
 
 interface GeometryJob {
@@ -64,7 +61,7 @@ interface GeometryJob {
   offsets: Int32Array;
   nodes: Int32Array;
   types: Uint8Array;
-  geom: CellGeometry;
+  core: CoreGeometry;
   from: number;
   to: number;
   coords: CoordinateSystem;
@@ -76,7 +73,15 @@ interface PieceJob {
   options: ReadFileOptions;
 }
 
-type Job = GeometryJob | PieceJob;
+interface ChecksJob {
+  kind: 'checks';
+  points: Float64Array;
+  offsets: Int32Array;
+  nodes: Int32Array;
+  nCells: number;
+}
+
+type Job = GeometryJob | PieceJob | ChecksJob;
 
 interface WorkerReply {
   result?: unknown;
@@ -88,8 +93,7 @@ function runGeometryJob(job: GeometryJob): void {
     points: job.points, nPoints: job.points.length / 2, cellOffsets: job.offsets, cellNodes: job.nodes,
     cellTypes: job.types, nCells: job.types.length, pointData: [], cellData: [], format: '', warnings: [],
   };
-  if (job.coords === 'geographic') computeGeographicRange(mesh, job.geom, job.from, job.to);
-  else computeCellRange(mesh, job.geom, job.from, job.to);
+  coreRange(mesh, job.core, job.from, job.to, job.coords);
 }
 
 function buffersOf(mesh: Mesh): ArrayBuffer[] {
@@ -213,7 +217,9 @@ export interface ParallelGeometryOptions {
 
 /**
  * The geometry runAudit would compute for `mesh` (with the same coords and lengthUnit), over
- * `threads` threads: pass it as AuditOptions.geometry. The calling thread takes one share.
+ * `threads` threads: pass it as AuditOptions.geometry. The calling thread takes one share. Only
+ * the core arrays (the step limit's) are computed here, on shared memory; the shape measures
+ * follow on first use (deferGeometry), or block by block in the threaded CSV writer.
  */
 export async function parallelGeometry(mesh: Mesh, threads: number, options: ParallelGeometryOptions = {}): Promise<CellGeometry> {
   const coords = options.coords ?? 'planar';
@@ -226,25 +232,44 @@ export async function parallelGeometry(mesh: Mesh, threads: number, options: Par
   const n = mesh.nCells;
   const wanted = options.pool ? options.pool.size + 1 : Math.floor(threads);
   const t = Math.max(1, Math.min(wanted, Math.floor(n / MIN_CELLS_PER_THREAD)));
-  const reuse = options.into && options.into.flags.length === n && options.into.flags.buffer instanceof SharedArrayBuffer ? options.into : undefined;
-  if (t <= 1) return computeGeometry(points === mesh.points ? mesh : { ...mesh, points }, reuse, coords);
-  const geom = reuse ?? sharedGeometry(n);
+  const into = options.into;
+  const reuse = into && into.flags.length === n && into.flags.buffer instanceof SharedArrayBuffer;
+  const core: CoreGeometry = reuse
+    ? { signedArea: into.signedArea, area: into.area, perimeter: into.perimeter, inradius: into.inradius, radiusRatio: into.radiusRatio, flags: into.flags, orientation: 1 }
+    : sharedCore(n);
   const base = {
     kind: 'geometry' as const,
-    points: shared(points, (b, m) => new Float64Array(b, 0, m)),
-    offsets: shared(mesh.cellOffsets, (b, m) => new Int32Array(b, 0, m)),
-    nodes: shared(mesh.cellNodes, (b, m) => new Int32Array(b, 0, m)),
-    types: shared(mesh.cellTypes.subarray(0, n), (b, m) => new Uint8Array(b, 0, m)),
-    geom,
+    points: t > 1 ? shared(points, (b, m) => new Float64Array(b, 0, m)) : points,
+    offsets: t > 1 ? shared(mesh.cellOffsets, (b, m) => new Int32Array(b, 0, m)) : mesh.cellOffsets,
+    nodes: t > 1 ? shared(mesh.cellNodes, (b, m) => new Int32Array(b, 0, m)) : mesh.cellNodes,
+    types: t > 1 ? shared(mesh.cellTypes.subarray(0, n), (b, m) => new Uint8Array(b, 0, m)) : mesh.cellTypes.subarray(0, n),
+    core,
     coords,
   };
   const jobs: GeometryJob[] = [];
   for (let k = 0; k < t; k++) jobs.push({ ...base, from: Math.floor((n * k) / t), to: Math.floor((n * (k + 1)) / t) });
-  const others = runJobs(jobs.slice(1), t - 1, options.workerUrl, options.pool);
+  const others = t > 1 ? runJobs(jobs.slice(1), t - 1, options.workerUrl, options.pool) : Promise.resolve([]);
   runGeometryJob(jobs[0]!);
   await others;
-  markInverted(geom);
-  return geom;
+  markInverted(core);
+  const on: Mesh = { ...mesh, points: base.points, cellOffsets: base.offsets, cellNodes: base.nodes, cellTypes: base.types };
+  return deferGeometry(on, core, coords);
+}
+
+/**
+ * meshChecks(mesh) on a worker thread, so that this thread can go on with the audit meanwhile
+ * (startAudit, then finishAudit with the result). The mesh's arrays are shared, not copied, when
+ * they are on shared memory already (src/mesh/alloc.ts).
+ */
+export function meshChecksOnWorker(mesh: Mesh, options: { workerUrl?: URL } = {}): Promise<MeshChecks> {
+  const job: ChecksJob = {
+    kind: 'checks',
+    points: shared(mesh.points, (b, m) => new Float64Array(b, 0, m)),
+    offsets: shared(mesh.cellOffsets, (b, m) => new Int32Array(b, 0, m)),
+    nodes: shared(mesh.cellNodes, (b, m) => new Int32Array(b, 0, m)),
+    nCells: mesh.nCells,
+  };
+  return runJobs([job], 1, options.workerUrl, undefined).then((r) => r[0] as MeshChecks);
 }
 
 /** The pieces a .pvtu / .pvtp names, or null when `file` is not a partitioned VTK XML file. */
@@ -288,6 +313,12 @@ if (!isMainThread && workerData === WORKER_MARK && parentPort) {
       if (job.kind === 'geometry') {
         runGeometryJob(job);
         port.postMessage({});
+      } else if (job.kind === 'checks') {
+        const mesh: Mesh = {
+          points: job.points, nPoints: job.points.length / 2, cellOffsets: job.offsets, cellNodes: job.nodes,
+          cellTypes: new Uint8Array(0), nCells: job.nCells, pointData: [], cellData: [], format: '', warnings: [],
+        };
+        port.postMessage({ result: meshChecks(mesh) });
       } else {
         const mesh = readMeshFile(job.path, job.options);
         port.postMessage({ result: mesh }, buffersOf(mesh));

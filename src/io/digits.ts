@@ -107,17 +107,33 @@ export function writeNumber(out: Uint8Array, pos: number, x: number): number {
   return end >= 0 ? end : writeAscii(out, pos, String(x));
 }
 
+let POW_HI: Float64Array | null = null;
+let POW_LO: Float64Array | null = null;
+let POW_EXP: Int32Array | null = null;
+
+function loadTable(): Float64Array {
+  const t = pow10Table();
+  POW_LO = t.lo;
+  POW_EXP = t.exp;
+  POW_HI = t.hi;
+  return t.hi;
+}
+
 /** Shortest digits of a finite v > 0 at pos; -1 when the margin test sends it to String(). */
 function shortest(out: Uint8Array, pos: number, v: number): number {
-  const { hi: ph, lo: powLo, exp: powExp } = pow10Table();
+  const ph = POW_HI ?? loadTable();
+  const powLo = POW_LO!, powExp = POW_EXP!;
   f64[0] = v;
   const hw = u32[HI]!;
-  const be = Math.floor(hw / 1048576); // biased exponent; the sign bit is clear
+  const be = hw >>> 20; // biased exponent; the sign bit is clear
   // subnormals have wider rounding intervals than the integer steps below allow for
   if (be === 0) return -1;
-  const f = (hw - be * 1048576) * TWO32 + u32[LO]! + TWO52;
+  const top = hw & 0xfffff;
+  const f = top * TWO32 + u32[LO]! + TWO52;
   const e = be - 1075;
-  let K = 16 - Math.floor((be - 1023) * 0.30102999566398114);
+  // log2(v) ≈ (be − 1023) + (mantissa − 1) (never above it): K with V = v·10^K in [1e16, 1e17),
+  // or one too large (then one more try below)
+  let K = 16 - Math.floor((be - 1023 + top / 1048576) * 0.30102999566398114);
   const asymmetric = f === TWO52 && be > 1;
   let s = 0, t = 0, dh = 0, dl = 0;
   for (let tries = 0; ; tries++) {
@@ -191,10 +207,10 @@ function shortest(out: Uint8Array, pos: number, v: number): number {
   let ac = am;
   if (bc >= 1e8) { bc -= 1e8; ac++; }
   // digits of C into scratch: ac holds 8 digits (C ≥ 1e16 - 1) and at most 1e9 (C ≤ 1e17)
-  const top = Math.floor(ac / 1e8);
+  const lead = Math.floor(ac / 1e8);
   let nd = 16;
-  if (top >= 10) { scratch[0] = 49; scratch[1] = 48; nd = 18; } else if (top > 0) { scratch[0] = 48 + top; nd = 17; }
-  put8(scratch, nd - 16, ac - top * 1e8);
+  if (lead >= 10) { scratch[0] = 49; scratch[1] = 48; nd = 18; } else if (lead > 0) { scratch[0] = 48 + lead; nd = 17; }
+  put8(scratch, nd - 16, ac - lead * 1e8);
   put8(scratch, nd - 8, bc);
   if (r < 0) {
     r = 0;

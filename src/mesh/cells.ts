@@ -3,6 +3,7 @@
  * cells to their corners, skip vertices and lines, and reject 3-D cells with a clear message.
  * Cell types come in VTK numbering; readers of other formats map their ids first.
  */
+import { float64s, int32s, uint8s } from './alloc.js';
 import { MeshInputError, type ErrorLocation } from './errors.js';
 import { QUAD, TRIANGLE, type DataArray, type FieldValues, type Mesh } from './model.js';
 
@@ -112,9 +113,9 @@ export function keepSurfaceCells(
     const what = [...count3d.entries()].map(([t, m]) => `${m} ${vtkCellTypeName(t)}`).join(', ');
     throw new MeshInputError(`2-D meshes only: found ${what}`, loc);
   }
-  const cellTypes = new Uint8Array(nKeep);
-  const cellOffsets = new Int32Array(nKeep + 1);
-  const cellNodes = new Int32Array(nNodes);
+  const cellTypes = uint8s(nKeep);
+  const cellOffsets = int32s(nKeep + 1);
+  const cellNodes = int32s(nNodes);
   const kept = nKeep === n ? null : new Int32Array(nKeep);
   let j = 0;
   let p = 0;
@@ -187,7 +188,7 @@ export function planarPoints(coords: ArrayLike<number>, nPoints: number, dim: nu
   if (coords.length < nPoints * dim) {
     throw new MeshInputError(`points array holds ${coords.length} values, ${nPoints * dim} expected`, loc);
   }
-  const out = new Float64Array(nPoints * 2);
+  const out = float64s(nPoints * 2);
   let zmin = Infinity;
   let zmax = -Infinity;
   for (let i = 0; i < nPoints; i++) {

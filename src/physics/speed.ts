@@ -9,6 +9,7 @@
  * speed in the cell); cell data is used as is. When every input is point data, λ is evaluated
  * per node and the maximum taken; otherwise the maxima of the two terms are added (never less).
  */
+import { float64s } from '../mesh/alloc.js';
 import { UsageError, MeshInputError } from '../mesh/errors.js';
 import { findArray, type DataArray, type Mesh } from '../mesh/model.js';
 
@@ -97,8 +98,23 @@ export interface VelocityField {
   source: string;
 }
 
-/** Velocity components per tuple (a vector array or two scalar arrays), or null when none is found. */
-export function velocityField(mesh: Mesh, opts: SpeedOptions, warnings: string[]): VelocityField | null {
+/** Where the velocity comes from: two scalar arrays, or the first two components of a vector array. */
+interface VelocityInput {
+  x: ArrayLike<number>;
+  y: ArrayLike<number>;
+  /** Values per tuple in x and y, and the offsets of the two components. */
+  stride: number;
+  ox: number;
+  oy: number;
+  /** The vector array when it has a z component (3), for the warning. */
+  z: DataArray | null;
+  n: number;
+  onPoints: boolean;
+  source: string;
+}
+
+/** The velocity arrays (checked finite), or null when none is found. */
+function velocityInput(mesh: Mesh, opts: SpeedOptions): VelocityInput | null {
   const file = opts.file;
   if (Array.isArray(opts.velocity)) {
     const [nx, ny] = opts.velocity;
@@ -108,7 +124,8 @@ export function velocityField(mesh: Mesh, opts: SpeedOptions, warnings: string[]
     if (ax.array.components !== 1 || ay.array.components !== 1) throw new UsageError(`--velocity X,Y takes two scalar arrays; "${nx}" has ${ax.array.components} components, "${ny}" has ${ay.array.components}`);
     checkFinite(ax.array, file);
     checkFinite(ay.array, file);
-    return { vx: Float64Array.from(ax.array.values), vy: Float64Array.from(ay.array.values), onPoints: ax.onPoints, source: `${nx}, ${ny} (${ax.onPoints ? 'point' : 'cell'} data)` };
+    const n = Math.min(ax.array.values.length, ay.array.values.length);
+    return { x: ax.array.values, y: ay.array.values, stride: 1, ox: 0, oy: 0, z: null, n, onPoints: ax.onPoints, source: `${nx}, ${ny} (${ax.onPoints ? 'point' : 'cell'} data)` };
   }
   let loc: Located | null;
   if (typeof opts.velocity === 'string') {
@@ -123,26 +140,57 @@ export function velocityField(mesh: Mesh, opts: SpeedOptions, warnings: string[]
   const a = loc.array;
   checkFinite(a, file);
   const m = a.components;
-  const v = a.values;
-  const n = v.length / m;
-  const vx = new Float64Array(n), vy = new Float64Array(n);
-  let zmax = 0;
-  for (let i = 0; i < n; i++) {
-    vx[i] = v[i * m]!;
-    vy[i] = v[i * m + 1]!;
-    if (m === 3) {
-      const z = Math.abs(v[i * m + 2]!);
-      if (z > zmax) zmax = z;
-    }
-  }
-  if (zmax > 0) warnings.push(`velocity "${a.name}" has a nonzero z component (up to ${zmax}); only the x-y components are used`);
-  return { vx, vy, onPoints: loc.onPoints, source: `${a.name} (${loc.onPoints ? 'point' : 'cell'} data, ${m} components)` };
+  return { x: a.values, y: a.values, stride: m, ox: 0, oy: 1, z: m === 3 ? a : null, n: a.values.length / m, onPoints: loc.onPoints, source: `${a.name} (${loc.onPoints ? 'point' : 'cell'} data, ${m} components)` };
 }
 
-function magnitude(v: VelocityField): Float64Array {
-  const n = v.vx.length;
-  const mag = new Float64Array(n);
-  for (let i = 0; i < n; i++) mag[i] = Math.hypot(v.vx[i]!, v.vy[i]!);
+/** The largest |z| of a 3-component array (0 when it has none). */
+function largestZ(a: DataArray | null): number {
+  if (!a) return 0;
+  const v = a.values;
+  let zmax = 0;
+  for (let i = 2; i < v.length; i += 3) {
+    const z = Math.abs(v[i]!);
+    if (z > zmax) zmax = z;
+  }
+  return zmax;
+}
+
+/** The velocity as x and y components per tuple, scaled to m/s. */
+function velocityComponents(u: VelocityInput, scale: number): VelocityField {
+  const vx = new Float64Array(u.n), vy = new Float64Array(u.n);
+  const { x, y, stride, ox, oy } = u;
+  for (let i = 0; i < u.n; i++) {
+    vx[i] = x[i * stride + ox]!;
+    vy[i] = y[i * stride + oy]!;
+  }
+  if (scale !== 1) for (let i = 0; i < u.n; i++) { vx[i] = vx[i]! * scale; vy[i] = vy[i]! * scale; }
+  return { vx, vy, onPoints: u.onPoints, source: u.source };
+}
+
+/** Velocity components per tuple (a vector array or two scalar arrays), or null when none is found. */
+export function velocityField(mesh: Mesh, opts: SpeedOptions, warnings: string[]): VelocityField | null {
+  const u = velocityInput(mesh, opts);
+  if (!u) return null;
+  const zmax = largestZ(u.z);
+  if (zmax > 0) warnings.push(`velocity "${u.z!.name}" has a nonzero z component (up to ${zmax}); only the x-y components are used`);
+  return velocityComponents(u, opts.velocityScale ?? 1);
+}
+
+/**
+ * |(x, y)| by the square root (correctly rounded everywhere, and many times faster than
+ * Math.hypot); hypot only where the squares would overflow or underflow.
+ */
+export function norm(x: number, y: number): number {
+  const s = x * x + y * y;
+  return s < 1e300 && s > 1e-300 ? Math.sqrt(s) : Math.hypot(x, y);
+}
+
+/** |u| per tuple, the components scaled to m/s first. */
+function speedOfInput(u: VelocityInput, scale: number): Float64Array {
+  const mag = new Float64Array(u.n);
+  const { x, y, stride, ox, oy } = u;
+  if (scale === 1) for (let i = 0; i < u.n; i++) mag[i] = norm(x[i * stride + ox]!, y[i * stride + oy]!);
+  else for (let i = 0; i < u.n; i++) mag[i] = norm(x[i * stride + ox]! * scale, y[i * stride + oy]! * scale);
   return mag;
 }
 
@@ -202,7 +250,7 @@ function cellMaxOfPoints(mesh: Mesh, values: Float64Array): Float64Array {
   const n = mesh.nCells;
   const off = mesh.cellOffsets;
   const nodes = mesh.cellNodes;
-  const out = new Float64Array(n);
+  const out = float64s(n);
   for (let i = 0; i < n; i++) {
     let m = 0;
     for (let k = off[i]!, e = off[i + 1]!; k < e; k++) {
@@ -222,12 +270,11 @@ export function cellSpeeds(mesh: Mesh, opts: SpeedOptions = {}): SpeedResult {
   const model = opts.model ?? 'advection';
   if (!WAVE_MODELS.includes(model)) throw new UsageError(`unknown model "${model}"; use one of ${WAVE_MODELS.join(', ')}`);
   const warnings: string[] = [];
-  const field = velocityField(mesh, opts, warnings);
+  const input = velocityInput(mesh, opts);
   const vs = opts.velocityScale ?? 1;
-  if (field && vs !== 1) {
-    for (let i = 0; i < field.vx.length; i++) { field.vx[i] = field.vx[i]! * vs; field.vy[i] = field.vy[i]! * vs; }
-  }
-  const vel = field ? { mag: magnitude(field), onPoints: field.onPoints, source: field.source } : null;
+  const zmax = input ? largestZ(input.z) : 0;
+  if (zmax > 0) warnings.push(`velocity "${input!.z!.name}" has a nonzero z component (up to ${zmax}); only the x-y components are used`);
+  const vel = input ? { mag: speedOfInput(input, vs), onPoints: input.onPoints, source: input.source } : null;
   if (!vel && model === 'advection') {
     throw new UsageError(`no velocity array found (tried ${VELOCITY_NAMES.join(', ')}); pass --velocity NAME or --velocity X,Y; arrays in the file: ${listArrays(mesh)}`);
   }
@@ -243,8 +290,8 @@ export function cellSpeeds(mesh: Mesh, opts: SpeedOptions = {}): SpeedResult {
     for (let i = 0; i < t.length; i++) perNode[i] = perNode[i]! + t[i]!;
     speed = cellMaxOfPoints(mesh, perNode);
   } else {
-    speed = vel ? toCells(mesh, vel.mag, vel.onPoints) : new Float64Array(n);
-    if (speed === vel?.mag) speed = new Float64Array(speed);
+    speed = vel ? toCells(mesh, vel.mag, vel.onPoints) : float64s(n);
+    if (speed === vel?.mag) { speed = float64s(n); speed.set(vel.mag); }
     if (wave) {
       if (typeof wave.term === 'number') {
         for (let i = 0; i < n; i++) speed[i] = speed[i]! + (wave.term as number);
@@ -267,9 +314,14 @@ export function cellSpeeds(mesh: Mesh, opts: SpeedOptions = {}): SpeedResult {
       for (let i = 0; i < n; i++) if (!wet[i]) dry++;
     }
   }
+  let field: VelocityField | null | undefined;
   return {
     speed,
-    velocity: field,
+    // the components, made on first use (face-based limits need them; the step does not)
+    get velocity(): VelocityField | null {
+      if (field === undefined) field = input ? velocityComponents(input, vs) : null;
+      return field;
+    },
     wave,
     dry,
     velocitySource: vel ? vel.source : null,

@@ -3,7 +3,7 @@ import { describe, expect, it, beforeAll } from 'vitest';
 import * as fs from 'node:fs';
 import * as path from 'node:path';
 import { cliTempDir, runCli as run } from '../helpers/cli.js';
-import { gridMesh } from '../helpers/meshes.js';
+import { gridMesh, rng } from '../helpers/meshes.js';
 import { writeVtu } from '../../src/io/vtu.js';
 
 let tmp = '';
@@ -154,6 +154,29 @@ describe('steplens audit (process)', () => {
     const missing = run(['audit', f]);
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/p1\.vtu/);
+  });
+
+  it('a mesh big enough for threads: --threads 2 writes what --threads 1 writes (JSON, both CSV column sets)', () => {
+    const m = gridMesh(360, 360, 3, true, 4.2e5, 5.1e6); // 259 200 triangles
+    const next = rng(21);
+    for (let i = 0; i < m.points.length; i++) m.points[i] = m.points[i]! + (next() - 0.5);
+    const vel = new Float64Array(3 * m.nPoints).map((_, i) => (i % 3 === 2 ? 0 : next() - 0.3));
+    const f = path.join(tmp, 'big.vtu');
+    fs.writeFileSync(f, writeVtu({ ...m, pointData: [{ name: 'velocity', components: 3, values: vel }] }, {}, { encoding: 'appended-raw' }));
+    const out = (k: number, set: string) => path.join(tmp, `big-${k}-${set}.csv`);
+    for (const set of ['standard', 'all']) {
+      const a = run(['audit', f, '--json', '--threads', '1', '--cells', out(1, set), '--cell-columns', set]);
+      const b = run(['audit', f, '--json', '--threads', '2', '--cells', out(2, set), '--cell-columns', set]);
+      expect(a.code, a.err).toBe(0);
+      expect(b.code, b.err).toBe(0);
+      expect(b.out).toBe(a.out);
+      expect(Buffer.compare(fs.readFileSync(out(1, set)), fs.readFileSync(out(2, set)))).toBe(0);
+    }
+    expect(fs.readFileSync(out(1, 'standard'), 'utf8').slice(0, 200).split('\n')[0]).toBe('cell,type,area,perimeter,inradius,speed,dt,radius_ratio,min_angle,centroid_x,centroid_y,flags,cause');
+    expect(fs.readFileSync(out(1, 'all'), 'utf8').slice(0, 300).split('\n')[0]).toBe('cell,type,area,perimeter,inradius,circumradius,speed,dt,radius_ratio,min_angle,max_angle,aspect_ratio,scaled_jacobian,condition,edge_ratio,centroid_x,centroid_y,flags,cause');
+    const bad = run(['audit', f, '--cells', out(3, 'x'), '--cell-columns', 'some']);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/--cell-columns must be standard or all, got "some"/);
   });
 
   it('--help and --version', () => {

@@ -178,7 +178,7 @@ describe('CSV numbers read back bit for bit', () => {
         return; // a typed refusal is the degenerate tests' business; here only tables matter
       }
       const extra = [{ name: 'anything', values: Float64Array.from({ length: mesh.nCells }, (_, i) => extraValues[i % 16]!) }];
-      const lines = cellsCsv(r, extra).split('\n');
+      const lines = cellsCsv(r, extra, 'all').split('\n');
       expect(lines.pop()).toBe('');
       const header = lines.shift()!.split(',');
       expect(lines).toHaveLength(mesh.nCells);

@@ -2,8 +2,8 @@
 // writer gives (written out here as the reference), chunked only between rows.
 import { describe, expect, it } from 'vitest';
 import { runAudit, CAUSE_DEGENERATE, CAUSE_DIFFUSION, CAUSE_FAST, CAUSE_SHAPE, CAUSE_SMALL, type AuditResult } from '../../src/audit/audit.js';
-import { cellsCsv, cellsCsvBytes, cellsCsvChunks, CSV_COLUMNS, type ExtraColumns } from '../../src/io/csv.js';
-import { FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE } from '../../src/geometry/cells.js';
+import { cellsCsv, cellsCsvBytes, cellsCsvChunks, CSV_COLUMNS, CSV_COLUMNS_ALL, type CsvColumnSet, type ExtraColumns } from '../../src/io/csv.js';
+import { computeCoreGeometry, FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE } from '../../src/geometry/cells.js';
 import { QUAD, type Mesh } from '../../src/mesh/model.js';
 import { gridMesh, meshOf, rng, vectorField } from '../helpers/meshes.js';
 
@@ -13,11 +13,12 @@ function words(bits: number, names: [number, string][]): string {
 
 const num = (x: number): string => (x === Infinity ? 'inf' : x === -Infinity ? '-inf' : x !== x ? 'nan' : Object.is(x, -0) ? '-0' : String(x));
 
-/** The table built with one String() per value. */
-function referenceCsv(r: AuditResult, extra: ExtraColumns): string {
+/** The table built with one String() per value (every column; `standard` keeps CSV_COLUMNS of them). */
+function referenceCsv(r: AuditResult, extra: ExtraColumns, set: CsvColumnSet = 'standard'): string {
   const g = r.geom;
   const ex: ExtraColumns = [...(r.courantAtDt ? [{ name: 'courant', values: r.courantAtDt }] : []), ...r.columns, ...extra];
-  let s = CSV_COLUMNS.concat(ex.map((c) => c.name)).join(',') + '\n';
+  const keep = CSV_COLUMNS_ALL.map((c) => set === 'all' || CSV_COLUMNS.includes(c)).concat(ex.map(() => true));
+  let s = CSV_COLUMNS_ALL.filter((_, k) => keep[k]).concat(ex.map((c) => c.name)).join(',') + '\n';
   for (let i = 0; i < r.mesh.nCells; i++) {
     const q = r.mesh.cellTypes[i] === QUAD;
     const row = [String(i), q ? 'quad' : 'triangle', num(g.area[i]!), num(g.perimeter[i]!), num(g.inradius[i]!), q ? '' : num(g.circumradius[i]!),
@@ -26,7 +27,7 @@ function referenceCsv(r: AuditResult, extra: ExtraColumns): string {
       words(g.flags[i]!, [[FLAG_DEGENERATE, 'degenerate'], [FLAG_REPEATED_NODE, 'repeated_node'], [FLAG_INVERTED, 'inverted'], [FLAG_NONCONVEX, 'non_convex']]),
       words(r.cause[i]!, [[CAUSE_DEGENERATE, 'degenerate'], [CAUSE_SMALL, 'small'], [CAUSE_SHAPE, 'shape'], [CAUSE_FAST, 'fast'], [CAUSE_DIFFUSION, 'diffusion']]),
       ...ex.map((c) => num(c.values[i]!))];
-    s += row.join(',') + '\n';
+    s += row.filter((_, k) => keep[k]).join(',') + '\n';
   }
   return s;
 }
@@ -55,10 +56,28 @@ describe('cellsCsvBytes', () => {
   const r = runAudit(awkward(), { dt: 0.05, length: 'flux', diffusivity: 0.3 });
   const extra: ExtraColumns = [{ name: 'level', values: Int32Array.from({ length: r.mesh.nCells }, (_, i) => (i % 5) - 2) }];
 
-  it('writes the same text as one String() per value', () => {
+  it('writes the same text as one String() per value, standard and all columns', () => {
     expect(r.columns.length).toBeGreaterThan(0);
     expect(r.summary.counts.degenerate).toBeGreaterThan(0);
     expect(cellsCsv(r, extra)).toBe(referenceCsv(r, extra));
+    expect(cellsCsv(r, extra, 'all')).toBe(referenceCsv(r, extra, 'all'));
+    expect(cellsCsv(r, extra).split('\n')[0]).toBe(CSV_COLUMNS.join(',') + ',courant,dt_inscribed,dt_flux,dt_diffusion,level');
+  });
+
+  it('shape measures computed block by block (a deferred geometry) give the same bytes', () => {
+    const mesh = awkward();
+    const options = { dt: 0.05 };
+    const eager = runAudit(mesh, options);
+    for (const set of ['standard', 'all'] as const) {
+      const deferred = runAudit(mesh, { ...options, geometry: computeCoreGeometry(mesh) });
+      expect(deferred.geom.deferred?.computed).toBe(false);
+      const chunks = Array.from(cellsCsvBytes(deferred, extra, 300, set), (c) => Buffer.from(c)); // copied: the writer reuses its buffer
+      expect(deferred.geom.deferred?.computed).toBe(false);
+      expect(Buffer.concat(chunks).toString()).toBe(referenceCsv(eager, extra, set));
+      // first use of a shape array computes them all, equal to the eager ones
+      expect(Array.from(deferred.geom.minAngle)).toEqual(Array.from(eager.geom.minAngle));
+      expect(deferred.geom.deferred?.computed).toBe(true);
+    }
   });
 
   it('splits only between rows, whatever the chunk size', () => {

@@ -30,7 +30,7 @@ describe('npm run bench -- --smoke --threads 2', () => {
       for (const k of [3, 4, 5, 6, 8]) expect(Number(row![k])).toBeGreaterThan(0);
     }
     expect(r.stdout).toMatch(/per-cell pass, 20,022 cells in memory/);
-    for (const what of ['geometry, 1 thread', 'geometry, 2 threads', 'pass, 1 thread', 'pass, 2 threads']) {
+    for (const what of ['core geometry, 1 thread', 'core geometry, 2 threads', 'pass, 1 thread', 'pass, 2 threads', 'shape measures, 1 thread']) {
       expect(r.stdout).toMatch(new RegExp(`^${what}\\s+[\\d.]+\\s+[\\d,]+$`, 'm'));
     }
   });
