@@ -16,6 +16,7 @@ import { looksGeographic, type CoordinateSystem } from '../geometry/geographic.j
 import { lengthFactor, velocityFactor } from '../physics/units.js';
 import { meshChecks, type MeshChecks } from './mesh-checks.js';
 import { quantileOf, quantileSorted, smallestK, sortedFinite } from './stats.js';
+import { lowerBound } from './whatif.js';
 
 export const CAUSE_SMALL = 1;
 export const CAUSE_SHAPE = 2;
@@ -262,8 +263,8 @@ export function startAudit(mesh: Mesh, options: AuditOptions = {}): PendingAudit
     columns.push({ name: 'dt_diffusion', values: dtDiffusion });
   }
 
-  const medH = quantileOf(h, 0.5, (v) => v < Infinity);
-  const medL = quantileOf(speed, 0.5, (v) => v > 0);
+  const medH = quantileOf(h, 0.5);
+  const medL = quantileOf(speed, 0.5, 0);
 
   const cause = uint8s(n);
   const counts = { degenerate: 0, repeated_node: 0, inverted: 0, non_convex: 0, dry: sp.dry, unlimited, small: 0, poor_shape: 0, fast: 0, diffusion: 0, duplicate_points: 0, unused_points: 0, isolated_cells: 0 };
@@ -320,20 +321,24 @@ export function startAudit(mesh: Mesh, options: AuditOptions = {}): PendingAudit
       if (v <= 10 * limitDt) within10++; else break;
     }
   }
+  // decade d holds the steps v > 0 with 10^d ≤ v < 10^(d+1): counted by binary search in the sorted steps
   const histogram: AuditSummary['histogram'] = [];
   {
-    const byDecade = new Map<number, number>();
-    for (let i = 0; i < sorted.length; i++) {
-      const v = sorted[i]!;
-      if (!(v > 0)) continue;
-      let d = Math.floor(Math.log10(v));
-      if (10 ** (d + 1) <= v) d++;
-      else if (10 ** d > v) d--;
-      byDecade.set(d, (byDecade.get(d) ?? 0) + 1);
-    }
-    const ds = [...byDecade.keys()].sort((a, b) => a - b);
-    if (ds.length) {
-      for (let d = ds[0]!; d <= ds[ds.length - 1]!; d++) histogram.push({ decade: d, from: 10 ** d, to: 10 ** (d + 1), cells: byDecade.get(d) ?? 0 });
+    const first = lowerBound(sorted, Number.MIN_VALUE);
+    if (first < sorted.length) {
+      const decadeOf = (v: number): number => {
+        let d = Math.floor(Math.log10(v));
+        if (10 ** (d + 1) <= v) d++;
+        else if (10 ** d > v) d--;
+        return d;
+      };
+      const last = decadeOf(sorted[sorted.length - 1]!);
+      let from = first;
+      for (let d = decadeOf(sorted[first]!); d <= last; d++) {
+        const to = d === last ? sorted.length : lowerBound(sorted, 10 ** (d + 1), from);
+        histogram.push({ decade: d, from: 10 ** d, to: 10 ** (d + 1), cells: to - from });
+        from = to;
+      }
     }
   }
 

@@ -19,40 +19,52 @@ function toKeys(w: Uint32Array, n: number, back: boolean): void {
   }
 }
 
+/** Digit k (11 bits, k = 0..5, least significant first) of the 64-bit key (lo, hi). */
+function digit11(lo: number, hi: number, k: number): number {
+  switch (k) {
+    case 0: return lo & 0x7ff;
+    case 1: return (lo >>> 11) & 0x7ff;
+    case 2: return (lo >>> 22) | ((hi & 1) << 10);
+    case 3: return (hi >>> 1) & 0x7ff;
+    case 4: return (hi >>> 12) & 0x7ff;
+    default: return hi >>> 23;
+  }
+}
+
 /**
  * Sort doubles (no NaN) in place in ascending order, as Float64Array.prototype.sort does, by a
- * least-significant-digit radix sort on their bits: four stable passes of 16 bits, a pass skipped
- * when every value has the same digit there. O(n) with one scratch array of n doubles.
+ * least-significant-digit radix sort on their bits: six stable passes of 11 bits (2048 buckets,
+ * kind to the caches), a pass skipped when every value has the same digit there (the exponent
+ * digits of steps that span a few decades). O(n) with one scratch array of n doubles.
  */
 export function radixSort(a: Float64Array): Float64Array {
   const n = a.length;
   if (n < 2048) return a.sort();
   let src: Uint32Array = new Uint32Array(a.buffer, a.byteOffset, 2 * n);
-  let dst: Uint32Array = new Uint32Array(2 * n);
+  let dst: Uint32Array | null = null;
   toKeys(src, n, false);
-  const count = new Int32Array(4 * 65536);
+  const count = new Int32Array(6 * 2048);
   for (let i = 0; i < n; i++) {
     const lo = src[2 * i + LO]!, hi = src[2 * i + HI]!;
-    count[lo & 0xffff]!++;
-    count[65536 + (lo >>> 16)]!++;
-    count[131072 + (hi & 0xffff)]!++;
-    count[196608 + (hi >>> 16)]!++;
+    count[lo & 0x7ff]!++;
+    count[2048 + ((lo >>> 11) & 0x7ff)]!++;
+    count[4096 + ((lo >>> 22) | ((hi & 1) << 10))]!++;
+    count[6144 + ((hi >>> 1) & 0x7ff)]!++;
+    count[8192 + ((hi >>> 12) & 0x7ff)]!++;
+    count[10240 + (hi >>> 23)]!++;
   }
-  for (let pass = 0; pass < 4; pass++) {
-    const base = pass * 65536;
-    const word = pass < 2 ? LO : HI;
-    const shift = pass % 2 === 0 ? 0 : 16;
+  for (let pass = 0; pass < 6; pass++) {
+    const base = pass * 2048;
     // one digit for every value: this pass would not change the order
-    const first = ((src[word]! >>> shift) & 0xffff) + base;
-    if (count[first] === n) continue;
+    if (count[base + digit11(src[LO]!, src[HI]!, pass)] === n) continue;
     let sum = 0;
-    for (let d = base; d < base + 65536; d++) { const c = count[d]!; count[d] = sum; sum += c; }
+    for (let d = base; d < base + 2048; d++) { const c = count[d]!; count[d] = sum; sum += c; }
+    dst ??= new Uint32Array(2 * n);
     for (let i = 0; i < n; i++) {
-      const w0 = src[2 * i]!, w1 = src[2 * i + 1]!;
-      const key = word === 0 ? w0 : w1;
-      const j = count[base + ((key >>> shift) & 0xffff)]!++;
-      dst[2 * j] = w0;
-      dst[2 * j + 1] = w1;
+      const lo = src[2 * i + LO]!, hi = src[2 * i + HI]!;
+      const j = count[base + digit11(lo, hi, pass)]!++;
+      dst[2 * j + LO] = lo;
+      dst[2 * j + HI] = hi;
     }
     const t = src; src = dst; dst = t;
   }
@@ -157,38 +169,39 @@ function topDigit(v: number): number {
 }
 
 /**
- * The k-th smallest (0-based) of the n values of `values` that pass `keep`: a histogram of the
- * values' top 16 key bits finds the bucket that holds rank k; only that bucket's values are
+ * The k-th smallest (0-based) of the values v of `values` with above < v < below: a histogram
+ * of their top 16 key bits finds the bucket that holds rank k; only that bucket's values are
  * copied and searched. O(n) without a copy of every value.
  */
-function kthKept(values: Float64Array, keep: (v: number) => boolean, k: number): number {
+function kthBetween(values: Float64Array, above: number, below: number, k: number): number {
   const count = new Int32Array(65536);
-  for (let i = 0; i < values.length; i++) { const v = values[i]!; if (keep(v)) count[topDigit(v)]!++; }
-  let below = 0, bucket = 0;
-  while (below + count[bucket]! <= k) below += count[bucket++]!;
+  for (let i = 0; i < values.length; i++) { const v = values[i]!; if (v > above && v < below) count[topDigit(v)]!++; }
+  let before = 0, bucket = 0;
+  while (before + count[bucket]! <= k) before += count[bucket++]!;
   const a = new Float64Array(count[bucket]!);
-  for (let i = 0, j = 0; i < values.length; i++) { const v = values[i]!; if (keep(v) && topDigit(v) === bucket) a[j++] = v; }
-  return selectInPlace(a, k - below, 0, a.length - 1);
+  for (let i = 0, j = 0; i < values.length; i++) { const v = values[i]!; if (v > above && v < below && topDigit(v) === bucket) a[j++] = v; }
+  return selectInPlace(a, k - before, 0, a.length - 1);
 }
 
 /**
  * A quantile with the same definition as `quantileSorted` (linear interpolation between the
- * closest ranks) without sorting: order statistics by selection.
+ * closest ranks) of the values v with above < v < below (default: the finite ones), without
+ * sorting: order statistics by selection.
  */
-export function quantileOf(values: Float64Array, q: number, keep: (v: number) => boolean): number | null {
+export function quantileOf(values: Float64Array, q: number, above = -Infinity, below = Infinity): number | null {
   let n = 0;
-  for (let i = 0; i < values.length; i++) if (keep(values[i]!)) n++;
+  for (let i = 0; i < values.length; i++) { const v = values[i]!; if (v > above && v < below) n++; }
   if (n === 0) return null;
   const pos = q * (n - 1);
   const lo = Math.floor(pos);
-  const vlo = kthKept(values, keep, lo);
+  const vlo = kthBetween(values, above, below, lo);
   const t = pos - lo;
   if (t === 0 || lo + 1 >= n) return vlo;
   // the next order statistic: vlo again when more values equal it, else the smallest above it
   let atMost = 0, vhi = Infinity;
   for (let i = 0; i < values.length; i++) {
     const v = values[i]!;
-    if (!keep(v)) continue;
+    if (!(v > above && v < below)) continue;
     if (v <= vlo) atMost++; else if (v < vhi) vhi = v;
   }
   if (atMost > lo + 1) vhi = vlo;

@@ -12,8 +12,11 @@
 
 import { POW10_MAX, POW10_MIN, pow10Table, productError } from '../mesh/decimal.js';
 
-/** Bytes a number may take: "-1.2345678901234567e-308" is 24. */
-export const MAX_NUMBER_BYTES = 25;
+/**
+ * Bytes a number may take: "-1.2345678901234567e-308" is 24. The writer may also use the bytes
+ * after the number as scratch, up to this many from where it starts.
+ */
+export const MAX_NUMBER_BYTES = 28;
 
 const f64 = new Float64Array(1);
 const u32 = new Uint32Array(f64.buffer);
@@ -28,8 +31,6 @@ const EPS = 1e-7;
 /** 2^i for i in [-64, 64]. */
 const POW2 = new Float64Array(129);
 for (let i = -64; i <= 64; i++) POW2[i + 64] = 2 ** i;
-
-const scratch = new Uint8Array(20);
 
 function writeAscii(out: Uint8Array, pos: number, s: string): number {
   for (let i = 0; i < s.length; i++) out[pos + i] = s.charCodeAt(i);
@@ -119,6 +120,26 @@ function loadTable(): Float64Array {
   return t.hi;
 }
 
+/** The nd digits (16, 17 or 18) of lead·1e16 + mid·1e8 + low at out[q..]; lead < 10, or 10 with nd = 18. */
+function putDigits(out: Uint8Array, q: number, lead: number, mid: number, low: number, nd: number): void {
+  if (nd === 18) { out[q] = 49; out[q + 1] = 48; q += 2; } else if (nd === 17) out[q++] = 48 + lead;
+  put8(out, q, mid);
+  put8(out, q + 8, low);
+}
+
+/** Trailing zero digits of the nd-digit number ·mid·low (mid, low < 1e8), at most nd − 1. */
+function trailingZeros(mid: number, low: number, nd: number): number {
+  let z = 0;
+  let v = low;
+  if (v === 0) {
+    z = 8;
+    v = mid;
+    if (v === 0) return nd - 1; // 1e16 or 1e17: one significant digit
+  }
+  while (v % 10 === 0) { v = (v / 10) | 0; z++; }
+  return Math.min(z, nd - 1);
+}
+
 /** Shortest digits of a finite v > 0 at pos; -1 when the margin test sends it to String(). */
 function shortest(out: Uint8Array, pos: number, v: number): number {
   const ph = POW_HI ?? loadTable();
@@ -206,37 +227,35 @@ function shortest(out: Uint8Array, pos: number, v: number): number {
   let bc = bm + off;
   let ac = am;
   if (bc >= 1e8) { bc -= 1e8; ac++; }
-  // digits of C into scratch: ac holds 8 digits (C ≥ 1e16 - 1) and at most 1e9 (C ≤ 1e17)
+  // C = lead·1e16 + mid·1e8 + bc: nd digits (C ≥ 1e16 − 1, and C ≤ 1e17)
   const lead = Math.floor(ac / 1e8);
-  let nd = 16;
-  if (lead >= 10) { scratch[0] = 49; scratch[1] = 48; nd = 18; } else if (lead > 0) { scratch[0] = 48 + lead; nd = 17; }
-  put8(scratch, nd - 16, ac - lead * 1e8);
-  put8(scratch, nd - 8, bc);
-  if (r < 0) {
-    r = 0;
-    while (r < nd - 1 && scratch[nd - 1 - r] === 48) r++;
-  }
+  const mid = ac - lead * 1e8;
+  const nd = lead >= 10 ? 18 : lead > 0 ? 17 : 16;
+  if (r < 0) r = trailingZeros(mid, bc, nd);
   const k = nd - r; // significant digits
   const n = nd - K; // decimal point position: value = 0.d1d2… × 10^n
+  // the digits are written in place and moved a byte where a point goes in
   let o = pos;
   if (k <= n && n <= 21) {
-    for (let i = 0; i < k; i++) out[o++] = scratch[i]!;
-    for (let i = k; i < n; i++) out[o++] = 48;
+    // an integer: the digits past k are zeros already
+    putDigits(out, o, lead, mid, bc, nd);
+    if (n <= nd) o += n;
+    else { o += nd; for (let i = nd; i < n; i++) out[o++] = 48; }
   } else if (0 < n && n <= 21) {
-    for (let i = 0; i < n; i++) out[o++] = scratch[i]!;
-    out[o++] = 46;
-    for (let i = n; i < k; i++) out[o++] = scratch[i]!;
+    putDigits(out, o + 1, lead, mid, bc, nd);
+    for (let i = 0; i < n; i++) out[o + i] = out[o + 1 + i]!;
+    out[o + n] = 46;
+    o += k + 1;
   } else if (-6 < n && n <= 0) {
     out[o++] = 48;
     out[o++] = 46;
     for (let i = n; i < 0; i++) out[o++] = 48;
-    for (let i = 0; i < k; i++) out[o++] = scratch[i]!;
+    putDigits(out, o, lead, mid, bc, nd);
+    o += k;
   } else {
-    out[o++] = scratch[0]!;
-    if (k > 1) {
-      out[o++] = 46;
-      for (let i = 1; i < k; i++) out[o++] = scratch[i]!;
-    }
+    putDigits(out, o + 1, lead, mid, bc, nd);
+    out[o] = out[o + 1]!;
+    if (k > 1) { out[o + 1] = 46; o += k + 1; } else o += 1;
     out[o++] = 101;
     const ex = n - 1;
     out[o++] = ex < 0 ? 45 : 43;
