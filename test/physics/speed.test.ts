@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { cellSpeeds, STANDARD_GRAVITY } from '../../src/physics/speed.js';
 import { MeshInputError, UsageError } from '../../src/mesh/errors.js';
-import { meshOf, scalarField, vectorField } from '../helpers/meshes.js';
+import { gridMesh, meshOf, scalarField, vectorField } from '../helpers/meshes.js';
 
 const twoTris = (pd: Parameters<typeof meshOf>[2] = [], cd: Parameters<typeof meshOf>[3] = []) =>
   meshOf([0, 0, 1, 0, 1, 1, 0, 1], [[0, 1, 2], [0, 2, 3]], pd, cd);
@@ -28,6 +29,25 @@ describe('wave speeds', () => {
     const alldry = cellSpeeds(twoTris([vectorField('velocity', [1, 0, 1, 0, 1, 0, 1, 0]), scalarField('depth', [0, -1, -2, 0])]), { model: 'shallow-water', depth: 'depth' });
     expect(alldry.dry).toBe(2);
     expect(alldry.speed[0]).toBe(1);
+  });
+
+  it('point velocity → cell: the largest |u| over the nodes, bit for bit (any magnitude, any unit factor)', () => {
+    const m = gridMesh(6, 5, 1, true);
+    // reference: |u| per node by the square root (by hypot where the squares leave its range), then the maximum
+    const norm = (x: number, y: number): number => { const s = x * x + y * y; return s < 1e300 && s > 1e-300 ? Math.sqrt(s) : Math.hypot(x, y); };
+    const component = fc.oneof(fc.double({ min: -50, max: 50, noNaN: true }), fc.constantFrom(0, -0, 1e-200, -3e-170, 2e160, -1e200, 5e-324));
+    fc.assert(fc.property(fc.array(component, { minLength: 2 * m.nPoints, maxLength: 2 * m.nPoints }), fc.constantFrom('m/s', 'kn'), (u, unit) => {
+      const scale = unit === 'kn' ? 1852 / 3600 : 1;
+      const r = cellSpeeds({ ...m, pointData: [vectorField('velocity', u)] }, { velocityScale: scale });
+      for (let c = 0; c < m.nCells; c++) {
+        let want = 0;
+        for (let k = m.cellOffsets[c]!; k < m.cellOffsets[c + 1]!; k++) {
+          const p = m.cellNodes[k]!;
+          want = Math.max(want, norm(u[2 * p]! * scale, u[2 * p + 1]! * scale));
+        }
+        expect(r.speed[c]).toBe(want);
+      }
+    }), { numRuns: 200, seed: 17 });
   });
 
   it('cell data is used as is; two scalar arrays as X,Y; acoustic constant and array', () => {
