@@ -6,7 +6,7 @@ import { UsageError } from '../mesh/errors.js';
 import { WAVE_MODELS, type WaveModel } from '../physics/speed.js';
 import { toJson } from '../io/format.js';
 import { csvColumnSet } from '../io/csv.js';
-import { allocateShared } from '../mesh/alloc.js';
+import { allocateShared, meshArrays, recycleSpent } from '../mesh/alloc.js';
 import { writeVtu } from '../io/vtu.js';
 import { parse, numberOption, type OptionSpec } from './args.js';
 import { analyseScheme, builtInTableau, parseTableau, TIME_INTEGRATORS, type Tableau } from '../stability/index.js';
@@ -256,6 +256,8 @@ export async function auditCommand(args: string[], io: CliIo): Promise<number> {
   const inputs: string[] = [];
   const mesh = threads > 1 ? await readMeshParallel(file, threads, { onFile: (f) => inputs.push(f) }) : loadMesh(file, inputs);
   io.progress?.(`auditing ${mesh.nCells} cells`);
+  // the raw bytes the reader has converted are memory for the arrays to come
+  recycleSpent(meshArrays(mesh));
   let result: AuditResult;
   if (threads > 1 && mesh.nCells >= 2 * MIN_CELLS_PER_THREAD) {
     options.geometry = await parallelGeometry(mesh, threads, {

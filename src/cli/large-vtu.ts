@@ -9,6 +9,7 @@ import { inputStat } from './files.js';
 import { constants as bufferConstants } from 'node:buffer';
 import * as zlib from 'node:zlib';
 import { MeshInputError } from '../mesh/errors.js';
+import { readBuffer } from '../mesh/alloc.js';
 import type { Mesh } from '../mesh/model.js';
 import { readMesh } from '../mesh/read.js';
 import { readVtkXml } from '../mesh/vtkxml/index.js';
@@ -63,7 +64,7 @@ class FileSource implements ByteSource {
     if (n > this.available()) {
       throw new MeshInputError(`${what} needs ${n} bytes but only ${this.available()} remain in the file`, { file: this.file, byteOffset: this.pos });
     }
-    const out = new Uint8Array(n);
+    const out = readBuffer(n);
     readAt(this.fd, out, this.pos, this.file);
     this.pos += n;
     return out;

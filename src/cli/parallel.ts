@@ -17,6 +17,7 @@ import type { Mesh } from '../mesh/model.js';
 import { parseXmlHead } from '../mesh/vtkxml/xml.js';
 import { joinPieces, missingPiece, pieceSources, PARALLEL_KINDS, type PieceSource } from '../mesh/vtkxml/pvtu.js';
 import { lengthFactor } from '../physics/units.js';
+import { sharedFloat64s, sharedUint8s } from '../mesh/alloc.js';
 import { meshChecks, type MeshChecks } from '../audit/mesh-checks.js';
 import { readMeshFile, type ReadFileOptions } from './large-vtu.js';
 
@@ -48,11 +49,9 @@ export function shared<T extends Shareable>(a: T, make: (b: SharedArrayBuffer, n
   return out;
 }
 
-/** Core geometry arrays (see coreRange) in one SharedArrayBuffer. */
+/** Core geometry arrays (see coreRange) on shared memory (spare memory first: src/mesh/alloc.ts). */
 function sharedCore(n: number): CoreGeometry {
-  const sab = new SharedArrayBuffer(n * (8 * 5 + 1));
-  let k = 0;
-  return allocCore(n, (m) => new Float64Array(sab, 8 * m * k++, m), new Uint8Array(sab, 8 * n * 5, n));
+  return allocCore(n, sharedFloat64s, sharedUint8s(n));
 }
 
 interface GeometryJob {

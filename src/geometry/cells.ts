@@ -452,17 +452,20 @@ export function cellShape(mesh: Mesh, i: number, coords: CoordinateSystem = 'pla
 
 /** Inverted = orientation opposite to the majority of non-degenerate cells. */
 export function markInverted(g: CoreGeometry): void {
-  const n = g.flags.length;
+  const flags = g.flags, sa = g.signedArea;
+  const n = flags.length;
   let pos = 0, neg = 0;
   for (let i = 0; i < n; i++) {
-    if (g.flags[i]! & FLAG_DEGENERATE) continue;
-    if (g.signedArea[i]! > 0) pos++; else neg++;
+    if (flags[i]! & FLAG_DEGENERATE) continue;
+    if (sa[i]! > 0) pos++; else neg++;
   }
   const orient = neg > pos ? -1 : 1;
   g.orientation = orient;
+  // every non-degenerate cell turns the majority's way: none to mark
+  if ((orient === 1 ? neg : pos) === 0) return;
   for (let i = 0; i < n; i++) {
-    if (g.flags[i]! & FLAG_DEGENERATE) continue;
-    if (g.signedArea[i]! * orient < 0) g.flags[i] |= FLAG_INVERTED;
+    if (flags[i]! & FLAG_DEGENERATE) continue;
+    if (sa[i]! * orient < 0) flags[i] |= FLAG_INVERTED;
   }
 }
 

@@ -83,6 +83,10 @@ export function keepSurfaceCells(
   let nNodes = 0;
   let nHigher = 0;
   let nSkipped = 0;
+  // every cell a plain triangle (5) or quad (9) with exactly its nodes: the arrays can be kept as they are
+  // (only arrays that own their whole buffer: never a view into the file's bytes, which callers may reuse or transfer)
+  let plain = types instanceof Uint8Array && offsets instanceof Int32Array && connectivity instanceof Int32Array && offsets[0] === 0 &&
+    ownsBuffer(types) && ownsBuffer(offsets) && ownsBuffer(connectivity);
   const count3d = new Map<number, number>();
   for (let i = 0; i < n; i++) {
     const t = types[i]!;
@@ -108,10 +112,22 @@ export function keepSurfaceCells(
     }
     nKeep++;
     nNodes += k;
+    if (plain && !((t === 5 && len === 3) || (t === 9 && len === 4))) plain = false;
   }
   if (count3d.size > 0) {
     const what = [...count3d.entries()].map(([t, m]) => `${m} ${vtkCellTypeName(t)}`).join(', ');
     throw new MeshInputError(`2-D meshes only: found ${what}`, loc);
+  }
+  if (plain && nKeep === n && nNodes === connectivity.length) {
+    const conn = connectivity as Int32Array;
+    for (let i = 0; i < n; i++) {
+      for (let a = offsets[i]!, e = offsets[i + 1]!; a < e; a++) {
+        const v = conn[a]!;
+        if (!(v >= 0 && v < nPoints)) throw new MeshInputError(`cell ${i} uses node ${v}, outside 0..${nPoints - 1}`, describeCell ? describeCell(i) : loc);
+      }
+    }
+    const warnings: string[] = [];
+    return { cellTypes: types as Uint8Array, cellOffsets: offsets as Int32Array, cellNodes: conn, kept: null, nRawCells: n, warnings };
   }
   const cellTypes = uint8s(nKeep);
   const cellOffsets = int32s(nKeep + 1);
@@ -144,6 +160,10 @@ export function keepSurfaceCells(
   if (nHigher > 0) warnings.push(`${nHigher} higher-order cells reduced to their corner nodes`);
   void nSkipped;
   return { cellTypes, cellOffsets, cellNodes, kept, nRawCells: n, warnings };
+}
+
+function ownsBuffer(a: ArrayBufferView): boolean {
+  return a.byteOffset === 0 && a.byteLength === a.buffer.byteLength;
 }
 
 /** Subset per-cell arrays (one tuple per file cell) to the kept cells. */

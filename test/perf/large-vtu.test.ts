@@ -88,6 +88,18 @@ describe('files over the buffer limit', () => {
     same(readMesh(bytes, file), m);
   });
 
+  it('64-bit ids read in place keep their narrowed arrays (no copy) and still check every node', () => {
+    const m = sample();
+    const file = write('ids64.vtu', writeVtu(m, {}, { encoding: 'appended-raw', intType: 'Int64' }));
+    const back = readMeshFile(file);
+    same(readMesh(new Uint8Array(fs.readFileSync(file)), file), back);
+    const bad = { ...m, cellNodes: m.cellNodes.slice() };
+    bad.cellNodes[3 * 7 + 1] = m.nPoints; // cell 7 names a node past the last one
+    const badFile = write('ids64-bad.vtu', writeVtu(bad, {}, { encoding: 'appended-raw', intType: 'Int64' }));
+    expect(() => readMeshFile(badFile)).toThrow(MeshInputError);
+    expect(() => readMeshFile(badFile)).toThrow(new RegExp(`cell 7 uses node ${m.nPoints}, outside 0\\.\\.${m.nPoints - 1}`));
+  });
+
   it('refuses other formats over the limit, naming the size', () => {
     const vtk = '# vtk DataFile Version 4.2\nx\nASCII\nDATASET UNSTRUCTURED_GRID\nPOINTS 3 double\n0 0 0 1 0 0 0 1 0\nCELLS 1 4\n3 0 1 2\nCELL_TYPES 1\n5\n';
     const file = write('small.vtk', vtk);

@@ -2,6 +2,7 @@
  * One `Piece` of an UnstructuredGrid or PolyData: its points, raw cells (offsets in start form)
  * and point/cell arrays, all still in the piece's own numbering.
  */
+import { int32s } from '../alloc.js';
 import { MeshInputError, type ErrorLocation } from '../errors.js';
 import type { DataArray, FieldValues } from '../model.js';
 import { arrayInfo, attrInt, readField, readIndices, type ArrayContext, type ArrayEncoding, type ArrayInfo } from './arrays.js';
@@ -85,7 +86,7 @@ function startOffsets(raw: ArrayLike<number>, nCells: number, connLength: number
   else if (raw.length === nCells + 1 && raw[0] === 0) shift = 1;
   else throw new MeshInputError(`the offsets array holds ${raw.length} values for ${nCells} cells`, loc);
   if (connLength > 0x7fffffff) throw new MeshInputError(`connectivity of ${connLength} entries is too large`, loc);
-  const starts = new Int32Array(nCells + 1);
+  const starts = int32s(nCells + 1);
   let prev = 0;
   for (let i = 0; i < nCells; i++) {
     const v = raw[i + shift]!;

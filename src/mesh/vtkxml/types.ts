@@ -2,6 +2,7 @@
  * VTK XML numeric types and the conversion of their bytes to typed arrays: views where the
  * bytes are little-endian and aligned, else one copy (and one swap pass for big-endian).
  */
+import { int32s } from '../alloc.js';
 import type { FieldValues } from '../model.js';
 
 export type NumType = 'Int8' | 'UInt8' | 'Int16' | 'UInt16' | 'Int32' | 'UInt32' | 'Int64' | 'UInt64' | 'Float32' | 'Float64';
@@ -111,7 +112,7 @@ export function indexValues(data: Uint8Array, t: NumType, bigEndian: boolean, ow
   if (t !== 'Int64' && t !== 'UInt64') return v;
   const n = v.length / 2;
   const w = v as Int32Array | Uint32Array;
-  const out = new Int32Array(n);
+  const out = int32s(n);
   const signed = t === 'Int64';
   for (let i = 0; i < n; i++) {
     const lo = w[2 * i]!;
