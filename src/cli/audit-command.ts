@@ -243,6 +243,8 @@ export async function auditCommand(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parse(args, SPEC);
   if (values.help) { io.stdout(AUDIT_HELP); return 0; }
   if (positionals.length === 0) throw new UsageError('audit needs a mesh file: steplens audit FILE [options] (see steplens audit --help)');
+  // snapshots are read one after another on this thread: ordinary memory, nothing kept for recycling
+  allocateShared(false);
   if (isSnapshotInput(positionals)) return snapshotAudit(positionals, values, io);
   const file = positionals[0]!;
   const failBelow = numberOption(values['fail-below'], 'fail-below');
