@@ -3,14 +3,15 @@
  *
  * Writes deterministic (seeded) meshes into a temporary folder and, for each, times as fresh
  * processes: the floor (bench/floor.mjs: read the file and decode its arrays, nothing else) and
- * the audit (`node bin/steplens.js audit FILE --cells OUT.csv --json`). Medians of --repeat runs,
+ * the audit (`node bin/steplens.js audit FILE --cells OUT.csv --json`), and the same audit without
+ * the per-cell table (what the analysis costs apart from writing it). Medians of --repeat runs,
  * after one untimed warm-up; peak RSS from a preloaded hook (bench/rss-hook.mjs). Then the
  * per-cell pass on its own (bench/percell.mjs), on one thread and over threads.
  *
  *   --quick        skip the 4M-cell case
  *   --smoke        the 20k-cell cases only, one run each (checks that the table prints)
  *   --repeat N     runs per measurement (default 3)
- *   --threads N    threads for the per-cell pass and for `audit --threads` when the CLI has it
+ *   --threads N    threads for the per-cell pass and for `audit --threads`
  *                  (default: the available cores)
  *   --only TEXT    only the cases whose name contains TEXT
  *   --keep         keep the folder of generated files
@@ -59,10 +60,6 @@ function medians(runs) {
   return { wall: median(runs.map((r) => r.wall)), cpu: median(runs.map((r) => r.cpu)), rss: median(runs.map((r) => r.rss)) };
 }
 
-function cliHasThreads() {
-  const r = spawnSync(process.execPath, [bin, 'audit', '--help'], { encoding: 'utf8' });
-  return /--threads/.test(r.stdout ?? '');
-}
 
 function fmt(x, digits) {
   return x.toFixed(digits);
@@ -74,14 +71,11 @@ function table(rows, head) {
   return cells.map((r) => r.map((c, j) => (j === 0 ? c.padEnd(width[j]) : c.padStart(width[j]))).join('  ')).join('\n');
 }
 
-/** The command has no --threads yet: also time bench/audit-wired.mjs, the audit as it will run once wired. */
-let withWired = false;
-
 function measureCase(c, dir, auditExtra) {
   const file = writeCase(c, dir);
   const size = caseBytes(file);
   const csv = path.join(dir, 'out.csv');
-  const floors = [], audits = [], wired = [];
+  const floors = [], audits = [], bare = [];
   let cells = 0;
   for (let k = 0; k < repeat; k++) {
     const f = runNode([path.join(here, 'floor.mjs'), file]);
@@ -91,24 +85,22 @@ function measureCase(c, dir, auditExtra) {
     if (JSON.parse(a.out).mesh.cells !== cells) throw new Error(`${c.name}: the audit saw ${JSON.parse(a.out).mesh.cells} cells, the floor ${cells}`);
     audits.push(a);
     fs.rmSync(csv, { force: true });
-    if (!withWired) continue;
-    const w = runNode([path.join(here, 'audit-wired.mjs'), file, csv, String(threads)]);
-    if (JSON.parse(w.out).mesh.cells !== cells) throw new Error(`${c.name}: the wired audit saw another mesh`);
-    wired.push(w);
-    fs.rmSync(csv, { force: true });
+    const b = runNode([bin, 'audit', file, '--json', ...auditExtra]);
+    if (JSON.parse(b.out).mesh.cells !== cells) throw new Error(`${c.name}: the audit without a table saw another mesh`);
+    bare.push(b);
   }
   if (!opt.keep) for (const name of fs.readdirSync(dir)) fs.rmSync(path.join(dir, name), { force: true });
   const fl = medians(floors);
   const budget = (3 * size + cells * OUTPUT_BYTES_PER_CELL) / 2 ** 20;
   const columns = (m) => [fmt(m.wall, 2), fmt(m.wall / fl.wall, 2), fmt(m.cpu / fl.cpu, 2), Math.round(cells / m.wall).toLocaleString('en'), fmt(m.rss, 0), fmt(m.rss / budget, 2)];
-  return [c.name, fmt(size / 2 ** 20, 1), cells, fmt(fl.wall, 2), ...columns(medians(audits)), ...(withWired ? columns(medians(wired)) : [])];
+  const nb = medians(bare);
+  return [c.name, fmt(size / 2 ** 20, 1), cells, fmt(fl.wall, 2), ...columns(medians(audits)), fmt(nb.wall, 2), fmt(nb.wall / fl.wall, 2)];
 }
 
 function main() {
   const cases = CASES.filter((c) => (opt.smoke ? c.smoke : !c.smoke) && !(opt.quick && c.big) && (!opt.only || c.name.includes(opt.only)));
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'steplens-bench-'));
-  const auditExtra = cliHasThreads() ? ['--threads', String(threads)] : [];
-  withWired = auditExtra.length === 0;
+  const auditExtra = ['--threads', String(threads)];
   console.log(`steplens bench: node ${process.version}, ${os.availableParallelism()} cores, load ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}, ${repeat} run(s) each, medians; folder ${dir}`);
   console.log(`audit: node bin/steplens.js audit FILE --cells OUT.csv --json ${auditExtra.join(' ')}`.trimEnd());
   // warm-up: one untimed floor and audit
@@ -125,14 +117,14 @@ function main() {
     if (!opt.keep) fs.rmSync(dir, { recursive: true, force: true });
   }
   const measured = ['ratio', 'cpu ratio', 'cells/s', 'RSS MiB', 'RSS/budget'];
-  console.log('\n' + table(rows, ['file', 'MiB', 'cells', 'floor s', 'audit s', ...measured, ...(withWired ? ['wired s', ...measured] : [])]));
-  console.log('floor: read + decode only (bench/floor.mjs); audit: the command above. Each a fresh process; ratio = wall time / floor\'s,');
+  console.log('\n' + table(rows, ['file', 'MiB', 'cells', 'floor s', 'audit s', ...measured, 'no-table s', 'ratio']));
+  console.log('floor: read + decode only (bench/floor.mjs); audit: the command above; no-table: the same without --cells.');
+  console.log('Each a fresh process; ratio = wall time / floor\'s,');
   console.log("cpu ratio = CPU time (every thread) / floor's; budget = 3 × file size + per-cell outputs");
-  if (withWired) console.log(`wired: bench/audit-wired.mjs, the same audit through the threaded read, geometry and CSV (${threads} threads)`);
   const perCells = opt.smoke ? 20_000 : opt.quick ? 1_000_000 : 4_000_000;
   const r = runNode([path.join(here, 'percell.mjs'), String(perCells), String(threads), String(opt.smoke ? 1 : 5)]);
   const p = JSON.parse(r.out);
-  console.log(`\nper-cell pass, ${p.cells.toLocaleString('en')} cells in memory, medians after a warm-up (pass = geometry + speed + limit):`);
+  console.log(`\nper-cell pass, ${p.cells.toLocaleString('en')} cells in memory, medians after a warm-up (pass = core geometry + speed + limit):`);
   console.log(table(p.rows.map(([what, ms, perS]) => [what, fmt(ms, 1), perS.toLocaleString('en')]), ['', 'ms', 'cells/s']));
   console.log(`load at the end ${os.loadavg().map((l) => l.toFixed(1)).join(' ')}`);
 }
