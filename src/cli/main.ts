@@ -2,6 +2,7 @@
 import { SteplensError } from '../mesh/errors.js';
 import { VERSION } from '../audit/audit.js';
 import { auditCommand } from './audit-command.js';
+import { allocateShared } from '../mesh/alloc.js';
 import { schemeCommand } from './scheme-command.js';
 import { probeCommand } from './probe-command.js';
 import { viewCommand } from './view-command.js';
@@ -40,6 +41,8 @@ export function nodeIo(): CliIo {
 
 export async function main(argv: string[], io: CliIo = nodeIo()): Promise<number> {
   const debug = argv.includes('--debug');
+  // every command starts on ordinary memory; audit turns shared memory on for its threads
+  allocateShared(false);
   try {
     const [cmd, ...rest] = argv;
     switch (cmd) {

@@ -63,5 +63,6 @@ await page.screenshot({ path: `${root}test-output/measure-${nc}.png` });
 console.log(`${nc} triangles: state ${await page.getAttribute('#app', 'data-state')}`);
 console.log(`first coloured frame ${Math.round(timings.firstFrame)} ms after the load began (${wall} ms after navigation)`);
 console.log('stages (ms):', Object.fromEntries(Object.entries(timings.stages).map(([k, v]) => [k, Math.round(v)])));
+console.log(`worker, from the request to its reply: ${Math.round(timings.workerMs)} ms`);
 await browser.close();
 await server.close();
