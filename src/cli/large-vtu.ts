@@ -10,6 +10,7 @@ import { constants as bufferConstants } from 'node:buffer';
 import * as zlib from 'node:zlib';
 import { MeshInputError } from '../mesh/errors.js';
 import { readBuffer } from '../mesh/alloc.js';
+import { readFully, SplitReader, SPLIT_READ_MIN } from './split-read.js';
 import type { Mesh } from '../mesh/model.js';
 import { readMesh } from '../mesh/read.js';
 import { readVtkXml } from '../mesh/vtkxml/index.js';
@@ -18,8 +19,6 @@ import type { AppendedAccess, ByteSource, Inflate } from '../mesh/vtkxml/arrays.
 /** Largest file read into one buffer (Node's limit for one Buffer). */
 export const BUFFER_LIMIT = bufferConstants.MAX_LENGTH;
 
-/** One readSync moves at most this much (Node refuses reads of 2 GiB and more). */
-const READ_STEP = 2 ** 30;
 /** The XML head of a file read in place is looked for within this many bytes. */
 const HEAD_LIMIT = 64 * 2 ** 20;
 const HEAD_STEP = 2 ** 20;
@@ -34,6 +33,8 @@ export const nativeInflate: Inflate = (src, out) => {
 export interface ReadFileOptions {
   /** Files larger than this are not read whole (default BUFFER_LIMIT; lowered by tests). */
   bufferLimit?: number;
+  /** Above 1: large arrays of raw appended data are read by two threads (into shared memory). */
+  threads?: number;
   /** Told of every file read: the mesh file, then its sibling or pieces (outputs must not overwrite them). */
   onFile?: (name: string) => void;
 }
@@ -43,14 +44,13 @@ function openInput(file: string): { fd: number; size: number } {
   return { fd: fs.openSync(file, 'r'), size: st.size };
 }
 
+/** Splits large reads over two threads while a file is read with threads (see readMeshFile). */
+let splitter: SplitReader | null = null;
+
 /** Fill `out` from the file at `position`; fails at a short read (the file changed or ended). */
 function readAt(fd: number, out: Uint8Array, position: number, file: string): void {
-  let done = 0;
-  while (done < out.length) {
-    const n = fs.readSync(fd, out, done, Math.min(READ_STEP, out.length - done), position + done);
-    if (n === 0) throw new MeshInputError(`the file ends at byte ${position + done}, before the ${out.length} bytes expected there`, { file, byteOffset: position + done });
-    done += n;
-  }
+  const done = splitter ? splitter.read(fd, out, position) : readFully(fd, out, position);
+  if (done < out.length) throw new MeshInputError(`the file ends at byte ${position + done}, before the ${out.length} bytes expected there`, { file, byteOffset: position + done });
 }
 
 /** Bytes of a file from one offset on, read only as they are asked for. */
@@ -176,7 +176,16 @@ export function readMeshFile(file: string, options: ReadFileOptions = {}): Mesh 
     let start: Uint8Array | undefined;
     if (size > 0 && looksLikeVtkXml(fd, size, file)) {
       const head = readHead(fd, size, file);
-      if (head.marker >= 0 && head.raw) return readVtuInPlace(file, fd, size, head.bytes.subarray(0, head.marker + 1));
+      if (head.marker >= 0 && head.raw) {
+        const split = (options.threads ?? 1) > 1 && size >= 4 * SPLIT_READ_MIN;
+        if (split) splitter = new SplitReader();
+        try {
+          return readVtuInPlace(file, fd, size, head.bytes.subarray(0, head.marker + 1));
+        } finally {
+          if (split && splitter) void splitter.close();
+          splitter = null;
+        }
+      }
       start = head.bytes;
     }
     if (size > limit) throw tooLarge(file, size, limit);

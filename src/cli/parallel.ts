@@ -295,7 +295,7 @@ export async function readMeshParallel(file: string, threads: number, options: P
   let head: Uint8Array | null = null;
   if (threads > 1 && /\.p(vtu|vtp)$/i.test(file) && fs.existsSync(file) && fs.statSync(file).size < 64 * 2 ** 20) head = fs.readFileSync(file);
   const parts = head ? partitionedPieces(file, head) : null;
-  if (!parts || parts.pieces.length < 2) return readMeshFile(file, options.onFile ? { ...readOptions, onFile: options.onFile } : readOptions);
+  if (!parts || parts.pieces.length < 2) return readMeshFile(file, { ...readOptions, threads, ...(options.onFile ? { onFile: options.onFile } : {}) });
   for (const p of parts.pieces) if (!fs.existsSync(p.path)) throw missingPiece(p, file);
   options.onFile?.(file);
   for (const p of parts.pieces) options.onFile?.(p.path);
