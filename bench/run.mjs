@@ -118,7 +118,7 @@ function main() {
   }
   const measured = ['ratio', 'cpu ratio', 'cells/s', 'RSS MiB', 'RSS/budget'];
   console.log('\n' + table(rows, ['file', 'MiB', 'cells', 'floor s', 'audit s', ...measured, 'no-table s', 'ratio']));
-  console.log('floor: read + decode only (bench/floor.mjs); audit: the command above; no-table: the same without --cells.');
+  console.log('floor: read + decode only, one thread (bench/floor.mjs); audit: the command above; no-table: the same without --cells.');
   console.log('Each a fresh process; ratio = wall time / floor\'s,');
   console.log("cpu ratio = CPU time (every thread) / floor's; budget = 3 × file size + per-cell outputs");
   const perCells = opt.smoke ? 20_000 : opt.quick ? 1_000_000 : 4_000_000;
