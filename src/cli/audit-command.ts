@@ -58,8 +58,9 @@ outputs
   --top N               number of worst cells listed (default 10)
   --fail-below DT       exit 3 when the largest stable step is below DT seconds
   --safety S            with several files (a run): step schedule = S × limit (default 0.9)
-  --threads N           worker threads for .pvtu pieces, geometry and the CSV (default: the
-                        available cores; results are identical for every N)
+  --threads N           worker threads for reading large arrays and .pvtu pieces, the
+                        geometry, the mesh checks and the CSV (default: the available cores;
+                        results are identical for every N)
   --debug               show stack traces of unexpected errors
 decision
   --gains F,F,...       remeshing table: how many worst cells must stop limiting the step
