@@ -157,12 +157,14 @@ describe('steplens audit (process)', () => {
   });
 
   it('a mesh big enough for threads: --threads 2 writes what --threads 1 writes (JSON, both CSV column sets)', () => {
-    const m = gridMesh(360, 360, 3, true, 4.2e5, 5.1e6); // 259 200 triangles
+    // 259 200 triangles with 64-bit ids, as common writers store them: the raw id bytes are
+    // recycled for the geometry under --threads 2, which must not change a byte of the output
+    const m = gridMesh(360, 360, 3, true, 4.2e5, 5.1e6);
     const next = rng(21);
     for (let i = 0; i < m.points.length; i++) m.points[i] = m.points[i]! + (next() - 0.5);
     const vel = new Float64Array(3 * m.nPoints).map((_, i) => (i % 3 === 2 ? 0 : next() - 0.3));
     const f = path.join(tmp, 'big.vtu');
-    fs.writeFileSync(f, writeVtu({ ...m, pointData: [{ name: 'velocity', components: 3, values: vel }] }, {}, { encoding: 'appended-raw' }));
+    fs.writeFileSync(f, writeVtu({ ...m, pointData: [{ name: 'velocity', components: 3, values: vel }] }, {}, { encoding: 'appended-raw', intType: 'Int64' }));
     const out = (k: number, set: string) => path.join(tmp, `big-${k}-${set}.csv`);
     for (const set of ['standard', 'all']) {
       const a = run(['audit', f, '--json', '--threads', '1', '--cells', out(1, set), '--cell-columns', set]);
