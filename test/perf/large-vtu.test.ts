@@ -10,6 +10,7 @@ import { MeshInputError } from '../../src/mesh/errors.js';
 import type { Mesh } from '../../src/mesh/model.js';
 import { readMesh } from '../../src/mesh/read.js';
 import { gridMesh, rng } from '../helpers/meshes.js';
+import { inputError } from '../helpers/errors.js';
 
 let dir = '';
 
@@ -49,15 +50,7 @@ function same(a: Mesh, b: Mesh): void {
   expect(b.warnings).toEqual(a.warnings);
 }
 
-function failure(fn: () => unknown): MeshInputError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(MeshInputError);
-    return e as MeshInputError;
-  }
-  throw new Error('expected a MeshInputError');
-}
+const failure = inputError;
 
 describe('files over the buffer limit', () => {
   const variants: [string, VtuWriteOptions][] = [

@@ -8,17 +8,12 @@ import { describe, expect, it } from 'vitest';
 import { MeshInputError } from '../../../src/mesh/errors.js';
 import { readVtkLegacy } from '../../../src/mesh/legacy/index.js';
 import { encodeLegacy, indexOfText, replaceText, type LegacySpec } from './encode.js';
+import { inputError } from '../../helpers/errors.js';
 
 const enc = new TextEncoder();
 
 function failure(bytes: Uint8Array, file: string): MeshInputError {
-  try {
-    readVtkLegacy(bytes, file);
-  } catch (e) {
-    if (e instanceof MeshInputError) return e;
-    throw e;
-  }
-  throw new Error('expected a MeshInputError, the file was read');
+  return inputError(() => readVtkLegacy(bytes, file));
 }
 
 /** The error for ASCII `text`, with its detail matching `detail` at 1-based `line`. */

@@ -8,6 +8,7 @@ import { writeVtu, type VtuEncoding } from '../../../src/io/vtu.js';
 import { MeshInputError } from '../../../src/mesh/errors.js';
 import { QUAD, TRIANGLE, type Mesh } from '../../../src/mesh/model.js';
 import { readVtkXml } from '../../../src/mesh/vtkxml/index.js';
+import { inputError } from '../../helpers/errors.js';
 
 const latin1 = new TextDecoder('latin1');
 
@@ -32,14 +33,9 @@ const LOCATED = /^bad\.vtu: (line \d+|byte \d+): \S/;
 
 /** Reads `bytes` as bad.vtu and returns the MeshInputError it must throw. */
 function failure(bytes: Uint8Array): MeshInputError {
-  try {
-    readVtkXml(bytes, 'bad.vtu');
-  } catch (e) {
-    expect(e).toBeInstanceOf(MeshInputError);
-    expect((e as Error).message).toMatch(LOCATED);
-    return e as MeshInputError;
-  }
-  throw new Error('expected a MeshInputError, the file was read');
+  const e = inputError(() => readVtkXml(bytes, 'bad.vtu'));
+  expect(e.message).toMatch(LOCATED);
+  return e;
 }
 
 function smallMesh(): Mesh {

@@ -1,10 +1,10 @@
 // Partitioned VTK XML (.pvtu): hand-written ASCII pieces and index files; expected values are
 // the ones written into them.
 import { describe, expect, it } from 'vitest';
-import { MeshInputError } from '../../../src/mesh/errors.js';
 import { findArray, QUAD, TRIANGLE, type Mesh } from '../../../src/mesh/model.js';
 import { readMesh } from '../../../src/mesh/read.js';
 import { PIECE_ARRAY, PIECE_ARRAY_ALT, pieceOfCell } from '../../../src/mesh/vtkxml/pvtu.js';
+import { inputError } from '../../helpers/errors.js';
 
 const enc = new TextEncoder();
 
@@ -53,15 +53,7 @@ function read(name: string, entries: Record<string, string>): Mesh {
   return readMesh(enc.encode(entries[name]!), name, { loadSibling: files(entries) });
 }
 
-function failure(fn: () => unknown): MeshInputError {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(MeshInputError);
-    return e as MeshInputError;
-  }
-  throw new Error('expected a MeshInputError');
-}
+const failure = inputError;
 
 describe('.pvtu', () => {
   it('joins the pieces in order: points duplicated on the cut, cells in piece then file order', () => {
