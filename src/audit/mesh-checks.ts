@@ -7,6 +7,7 @@
  * by a million cells costs no more than any other).
  */
 import type { Mesh } from '../mesh/model.js';
+import { HI_WORD as HI } from '../mesh/host.js';
 
 export interface MeshChecks {
   /** Points at exactly the coordinates of another point: a group of k such points counts k − 1. */
@@ -17,8 +18,6 @@ export interface MeshChecks {
   isolatedCells: number;
 }
 
-const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
-const HI = LITTLE_ENDIAN ? 1 : 0;
 
 /** The four 32-bit words of point p's (x, y), with -0 read as +0, into `key`. */
 function pointKey(w: Uint32Array, p: number, key: Uint32Array): void {

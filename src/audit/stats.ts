@@ -1,9 +1,7 @@
 /** Small statistics helpers over typed arrays (no per-value objects). */
 
-const LITTLE_ENDIAN = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
-/** Index of the low and high 32-bit word of a double in a Uint32Array view. */
-const LO = LITTLE_ENDIAN ? 0 : 1;
-const HI = 1 - LO;
+import { HI_WORD as HI, LO_WORD as LO } from '../mesh/host.js';
+
 const SIGN = 0x80000000;
 
 /**

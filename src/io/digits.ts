@@ -11,6 +11,7 @@
  */
 
 import { POW10_MAX, POW10_MIN, pow10Table, productError } from '../mesh/decimal.js';
+import { HI_WORD as HI, LO_WORD as LO } from '../mesh/host.js';
 
 /**
  * Bytes a number may take: "-1.2345678901234567e-308" is 24. The writer may also use the bytes
@@ -20,8 +21,6 @@ export const MAX_NUMBER_BYTES = 28;
 
 const f64 = new Float64Array(1);
 const u32 = new Uint32Array(f64.buffer);
-const HI = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0;
-const LO = 1 - HI;
 
 const TWO32 = 4294967296;
 const TWO52 = 4503599627370496;

@@ -7,6 +7,7 @@
  * to about 2^-100 of itself. A decision closer than 2^-40 ulp to a rounding boundary is
  * declined (NaN), and the caller falls back to the exact, slower Number(text).
  */
+import { HI_WORD as HI, LO_WORD as LO } from './host.js';
 
 export const POW10_MIN = -330;
 export const POW10_MAX = 330;
@@ -69,8 +70,6 @@ for (let i = -600; i <= 600; i++) POW2[i + 600] = 2 ** i;
 
 const f64 = new Float64Array(1);
 const u32 = new Uint32Array(f64.buffer);
-const HI = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0;
-const LO = 1 - HI;
 const TEN_POW = [1, 10, 100, 1000, 10000];
 const MIN_NORMAL = 2.2250738585072014e-308;
 

@@ -3,11 +3,11 @@
  * data), then one swap pass over 16- or 32-bit words of the copy.
  */
 import type { ValueType } from './types.js';
+import { HOST_LITTLE_ENDIAN as HOST_LE } from '../host.js';
 
 export type NumericArray =
   | Int8Array | Uint8Array | Int16Array | Uint16Array | Int32Array | Uint32Array | Float32Array | Float64Array;
 
-const HOST_LE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 const TWO32 = 4294967296;
 
 function swap16(u: Uint16Array): void {

@@ -6,8 +6,8 @@
  */
 import { MeshInputError } from '../errors.js';
 import { Scanner } from '../scan.js';
+import { HOST_LITTLE_ENDIAN as HOST_LE } from '../host.js';
 
-const HOST_LE = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 const TWO32 = 4294967296;
 /** Largest high word of a 64-bit unsigned value that still fits a double exactly (2^53). */
 const MAX_HIGH = 0x1fffff;
