@@ -29,42 +29,39 @@ export function float64s(n: number): Float64Array {
 }
 
 export function int32s(n: number): Int32Array {
-  if (!sharedMemory) return new Int32Array(n);
-  const b = carve(4 * n, 4);
-  return b ? new Int32Array(b, carveAt, n) : new Int32Array(new SharedArrayBuffer(4 * n));
+  return sharedMemory ? sharedArray(Int32Array, n) : new Int32Array(n);
 }
 
 export function uint8s(n: number): Uint8Array {
   return sharedMemory ? sharedUint8s(n) : new Uint8Array(n);
 }
 
-/** Where the last carve() starts in its buffer (0 for a fresh buffer). */
-let carveAt = 0;
-
-/** `bytes` of spare memory aligned to `align`, zero-filled; null when no spare buffer has room. */
-function carve(bytes: number, align: number): SharedArrayBuffer | null {
-  carveAt = 0;
-  for (const s of spare) {
-    const at = Math.ceil(s.at / align) * align;
-    if (at + bytes > s.buf.byteLength) continue;
-    s.at = at + bytes;
-    new Uint8Array(s.buf, at, bytes).fill(0);
-    carveAt = at;
-    return s.buf;
-  }
-  return null;
-}
-
 /** A Float64Array on shared memory (spare memory first), whatever allocateShared says. */
 export function sharedFloat64s(n: number): Float64Array {
-  const b = carve(8 * n, 8);
-  return b ? new Float64Array(b, carveAt, n) : new Float64Array(new SharedArrayBuffer(8 * n));
+  return sharedArray(Float64Array, n);
 }
 
 /** A Uint8Array on shared memory (spare memory first), whatever allocateShared says. */
 export function sharedUint8s(n: number): Uint8Array {
-  const b = carve(n, 8);
-  return b ? new Uint8Array(b, carveAt, n) : new Uint8Array(new SharedArrayBuffer(n));
+  return sharedArray(Uint8Array, n);
+}
+
+interface SharedArrayType<T> {
+  new (buffer: SharedArrayBuffer, byteOffset: number, length: number): T;
+  readonly BYTES_PER_ELEMENT: number;
+}
+
+/** n elements carved out of spare memory (8-byte aligned, zero-filled), else on a fresh shared buffer. */
+function sharedArray<T>(Type: SharedArrayType<T>, n: number): T {
+  const bytes = Type.BYTES_PER_ELEMENT * n;
+  for (const s of spare) {
+    const at = Math.ceil(s.at / 8) * 8;
+    if (at + bytes > s.buf.byteLength) continue;
+    s.at = at + bytes;
+    new Uint8Array(s.buf, at, bytes).fill(0);
+    return new Type(s.buf, at, n);
+  }
+  return new Type(new SharedArrayBuffer(bytes), 0, n);
 }
 
 /**
