@@ -13,7 +13,7 @@ import { isMainThread, parentPort, Worker, workerData } from 'node:worker_thread
 import { allocCore, coreRange, deferGeometry, markInverted, type CellGeometry, type CoreGeometry } from '../geometry/cells.js';
 import type { CoordinateSystem } from '../geometry/geographic.js';
 import { MeshInputError, SteplensError, UsageError, type ErrorLocation } from '../mesh/errors.js';
-import type { Mesh } from '../mesh/model.js';
+import { bareMesh, type Mesh } from '../mesh/model.js';
 import { parseXmlHead } from '../mesh/vtkxml/xml.js';
 import { joinPieces, missingPiece, pieceSources, PARALLEL_KINDS, type PieceSource } from '../mesh/vtkxml/pvtu.js';
 import { lengthFactor } from '../physics/units.js';
@@ -88,11 +88,7 @@ interface WorkerReply {
 }
 
 function runGeometryJob(job: GeometryJob): void {
-  const mesh: Mesh = {
-    points: job.points, nPoints: job.points.length / 2, cellOffsets: job.offsets, cellNodes: job.nodes,
-    cellTypes: job.types, nCells: job.types.length, pointData: [], cellData: [], format: '', warnings: [],
-  };
-  coreRange(mesh, job.core, job.from, job.to, job.coords);
+  coreRange(bareMesh(job.points, job.offsets, job.nodes, job.types), job.core, job.from, job.to, job.coords);
 }
 
 function buffersOf(mesh: Mesh): ArrayBuffer[] {
@@ -313,11 +309,7 @@ if (!isMainThread && workerData === WORKER_MARK && parentPort) {
         runGeometryJob(job);
         port.postMessage({});
       } else if (job.kind === 'checks') {
-        const mesh: Mesh = {
-          points: job.points, nPoints: job.points.length / 2, cellOffsets: job.offsets, cellNodes: job.nodes,
-          cellTypes: new Uint8Array(0), nCells: job.nCells, pointData: [], cellData: [], format: '', warnings: [],
-        };
-        port.postMessage({ result: meshChecks(mesh) });
+        port.postMessage({ result: meshChecks(bareMesh(job.points, job.offsets, job.nodes, new Uint8Array(0), job.nCells)) });
       } else {
         const mesh = readMeshFile(job.path, job.options);
         port.postMessage({ result: mesh }, buffersOf(mesh));

@@ -8,7 +8,7 @@ import { FLAG_DEGENERATE, FLAG_INVERTED, FLAG_NONCONVEX, FLAG_REPEATED_NODE } fr
 import { shapeRange, allocShape, type CellGeometry, type ShapeField, type ShapeGeometry } from '../geometry/cells.js';
 import type { CoordinateSystem } from '../geometry/geographic.js';
 import { UsageError } from '../mesh/errors.js';
-import { QUAD, type Mesh } from '../mesh/model.js';
+import { bareMesh, QUAD } from '../mesh/model.js';
 import { MAX_NUMBER_BYTES, writeInteger, writeNumber } from './digits.js';
 
 /** Every per-cell column the table can hold, in table order. */
@@ -164,9 +164,7 @@ export function writeCsvRows(t: CsvTable, out: Uint8Array, pos: number, from: nu
   const nc = columns.length;
   const cols: Float64Array[] = new Array(nc);
   const shift = new Int32Array(nc);
-  const source: Mesh | null = t.shape
-    ? { points: t.shape.points, nPoints: t.shape.points.length / 2, cellOffsets: t.shape.offsets, cellNodes: t.shape.nodes, cellTypes: types, nCells: t.nCells, pointData: [], cellData: [], format: '', warnings: [] }
-    : null;
+  const source = t.shape ? bareMesh(t.shape.points, t.shape.offsets, t.shape.nodes, types, t.nCells) : null;
   let p = pos;
   let i = from;
   while (i < to && p <= limit) {

@@ -47,6 +47,11 @@ export interface Mesh {
   warnings: string[];
 }
 
+/** A mesh of geometry only (no fields), from its arrays: what worker threads rebuild from shared memory. */
+export function bareMesh(points: Float64Array, cellOffsets: Int32Array, cellNodes: Int32Array, cellTypes: Uint8Array, nCells = cellTypes.length): Mesh {
+  return { points, nPoints: points.length / 2, cellOffsets, cellNodes, cellTypes, nCells, pointData: [], cellData: [], format: '', warnings: [] };
+}
+
 export function findArray(list: DataArray[], name: string): DataArray | undefined {
   for (const a of list) if (a.name === name) return a;
   return undefined;
